@@ -1,35 +1,38 @@
-/** Load the invented demo scenario. Idempotent: existing users and cases are left as they are. */
+/**
+ * Load the invented demo scenario through the same services the app uses, so its custody
+ * ledger is as real as any other. Idempotent: existing users and cases are left as they are.
+ */
 import type { Knex } from 'knex';
+import type { SessionUser } from '../../roles';
 import { hashPassword } from '../passwords';
 import { caseRepository } from '../repositories/case.repository';
 import { userRepository } from '../repositories/user.repository';
+import { caseService } from '../services/case.service';
 import { DEMO_CASES, DEMO_USERS } from './scenario';
 
 export async function seedDemo(knex: Knex): Promise<{ usersAdded: number; casesAdded: number }> {
 	const users = userRepository(knex);
 	const cases = caseRepository(knex);
-	const idByEmail = new Map<string, number>();
+	const service = caseService(knex);
+	const byEmail = new Map<string, SessionUser>();
 	let usersAdded = 0;
 	let casesAdded = 0;
 
-	for (const user of DEMO_USERS) {
-		const existing = await users.findByEmailWithHash(user.email);
-		if (existing) {
-			idByEmail.set(user.email, existing.id);
-			continue;
+	for (const demo of DEMO_USERS) {
+		let id = (await users.findByEmailWithHash(demo.email))?.id;
+		if (id === undefined) {
+			id = await users.insert({ ...demo, passwordHash: await hashPassword(demo.password) });
+			usersAdded++;
 		}
-		const id = await users.insert({ ...user, passwordHash: await hashPassword(user.password) });
-		idByEmail.set(user.email, id);
-		usersAdded++;
+		byEmail.set(demo.email, { id, name: demo.name, email: demo.email, role: demo.role });
 	}
 
 	for (const demo of DEMO_CASES) {
 		if (await cases.findByReference(demo.reference)) continue;
-		await knex.transaction(async (trx) => {
-			const createdBy = idByEmail.get(demo.createdBy)!;
-			const caseId = await cases.insert({ ...demo, createdBy }, trx);
-			for (const email of demo.members) await cases.addMember(caseId, idByEmail.get(email)!, createdBy, trx);
-		});
+		const creator = byEmail.get(demo.createdBy)!;
+		const created = await service.create(creator, demo);
+		for (const email of demo.members) await service.addMember(creator, created.id, byEmail.get(email)!.id);
+		if (demo.status !== 'open') await cases.setStatus(created.id, demo.status);
 		casesAdded++;
 	}
 	return { usersAdded, casesAdded };

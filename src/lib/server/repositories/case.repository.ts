@@ -82,7 +82,9 @@ export function caseRepository(knex: Knex) {
 			if (query.kind) q.where('c.kind', query.kind);
 			if (query.q) {
 				const pattern = likeContains(query.q);
-				q.where((w) => w.whereLike('c.title', pattern).orWhereLike('c.reference', pattern));
+				// Plain LIKE under the column's collation (case-insensitive). Knex's whereLike appends
+				// COLLATE utf8_bin, which MariaDB rejects on utf8mb4 columns and which is case-sensitive.
+				q.where((w) => w.where('c.title', 'like', pattern).orWhere('c.reference', 'like', pattern));
 			}
 			return q.orderBy(sortColumns[query.sort], query.dir).orderBy('c.id', query.dir).limit(query.limit);
 		},
@@ -123,12 +125,18 @@ export function caseRepository(knex: Knex) {
 				.orderBy('u.name');
 		},
 
+		async setStatus(id: number, status: CaseStatus, trx: Knex = knex): Promise<void> {
+			await trx('cases').where({ id }).update({ status, updated_at: trx.fn.now(3) });
+		},
+
+		/** Add a member; false when they already were one (the insert is then a no-op). */
 		async addMember(caseId: number, userId: number, addedBy: number, trx: Knex = knex): Promise<boolean> {
-			const inserted = await trx('case_members')
+			if (await trx('case_members').where({ case_id: caseId, user_id: userId }).first()) return false;
+			await trx('case_members')
 				.insert({ case_id: caseId, user_id: userId, added_by: addedBy })
 				.onConflict(['case_id', 'user_id'])
 				.ignore();
-			return (inserted as unknown as number[])[0] !== 0;
+			return true;
 		}
 	};
 }

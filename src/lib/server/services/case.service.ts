@@ -2,16 +2,19 @@
 import type { Knex } from 'knex';
 import { STAFF_ROLES, type SessionUser } from '../../roles';
 import type { CaseListQuery, NewCase } from '../../schemas/case';
+import { systemClock, type Clock } from '../clock';
 import { ConflictError, ForbiddenError, InvalidError, NotFoundError } from '../errors';
 import { caseRepository, type CaseMemberRow, type CaseRow } from '../repositories/case.repository';
 import { userRepository } from '../repositories/user.repository';
+import { custodyService } from './custody.service';
 
 const isStaff = (user: SessionUser) => STAFF_ROLES.includes(user.role);
 const canEditCases = (user: SessionUser) => user.role === 'admin' || user.role === 'technician';
 
-export function caseService(knex: Knex) {
+export function caseService(knex: Knex, clock: Clock = systemClock) {
 	const cases = caseRepository(knex);
 	const users = userRepository(knex);
+	const custody = custodyService(knex, clock);
 
 	async function visibleCase(user: SessionUser, caseId: number): Promise<CaseRow> {
 		const found = await cases.findById(caseId);
@@ -47,6 +50,15 @@ export function caseService(knex: Knex) {
 					});
 				}
 				const id = await cases.insert({ ...input, createdBy: user.id }, trx);
+				await custody.record(
+					{
+						action: 'case_created',
+						actor: { id: user.id, role: user.role },
+						caseId: id,
+						detail: { reference: input.reference, title: input.title, kind: input.kind }
+					},
+					trx
+				);
 				return (await cases.findById(id, trx))!;
 			});
 		},
@@ -56,7 +68,18 @@ export function caseService(knex: Knex) {
 			await visibleCase(user, caseId);
 			const member = await users.findById(memberId);
 			if (!member || !member.active) throw new InvalidError('Unknown user', { userId: ['Unknown user'] });
-			await cases.addMember(caseId, memberId, user.id);
+			await knex.transaction(async (trx) => {
+				if (!(await cases.addMember(caseId, memberId, user.id, trx))) return;
+				await custody.record(
+					{
+						action: 'case_member_added',
+						actor: { id: user.id, role: user.role },
+						caseId,
+						detail: { memberId, memberRole: member.role }
+					},
+					trx
+				);
+			});
 		}
 	};
 }

@@ -1,0 +1,17 @@
+import { json } from '@sveltejs/kit';
+import { systemClock } from '$lib/server/clock';
+import { db } from '$lib/server/db';
+import { apiCall } from '$lib/server/http';
+import { premisDocument } from '$lib/server/premis';
+import { custodyService } from '$lib/server/services/custody.service';
+import { visibleItem } from '$lib/server/services/item-access';
+import type { RequestHandler } from './$types';
+
+export const GET: RequestHandler = ({ locals, params }) =>
+	apiCall(async () => {
+		const item = await visibleItem(db(), locals.user!, Number(params.id));
+		const events = await custodyService(db(), systemClock).forItem(item.id);
+		return json(premisDocument(item, events), {
+			headers: { 'content-disposition': `attachment; filename="item-${item.id}-premis.json"` }
+		});
+	});
