@@ -5,10 +5,37 @@ import { decideAccess } from '$lib/server/access';
 import { authHandle } from '$lib/server/auth';
 import { closeDb, db } from '$lib/server/db';
 import { closeRedis } from '$lib/server/redis';
+import { apiTokenService } from '$lib/server/services/api-token.service';
 import { userService } from '$lib/server/services/user.service';
 
-/** Resolve the signed-in user from the session, re-reading role and status from the database. */
+const FORM_TYPES = ['application/x-www-form-urlencoded', 'multipart/form-data', 'text/plain'];
+const UNSAFE_METHODS = ['POST', 'PUT', 'PATCH', 'DELETE'];
+
+/** Refuse cross-site form submissions riding on the session cookie (CSRF). */
+const originHandle: Handle = async ({ event, resolve }) => {
+	const { request, url } = event;
+	const type = request.headers.get('content-type')?.split(';')[0].trim().toLowerCase() ?? '';
+	const bearer = request.headers.get('authorization')?.startsWith('Bearer ') && url.pathname.startsWith('/api/');
+	if (!bearer && UNSAFE_METHODS.includes(request.method) && FORM_TYPES.includes(type)) {
+		if (request.headers.get('origin') !== url.origin) {
+			return json({ error: `Cross-site ${request.method} form submissions are refused` }, { status: 403 });
+		}
+	}
+	return resolve(event);
+};
+
+/**
+ * Resolve the caller: a bearer token on API routes (automation), otherwise the session cookie.
+ * Role and status are re-read from the database, so changes take effect at once.
+ */
 const userHandle: Handle = async ({ event, resolve }) => {
+	const authorization = event.request.headers.get('authorization');
+	if (authorization && event.url.pathname.startsWith('/api/')) {
+		const [scheme, secret] = authorization.split(' ');
+		event.locals.user = scheme === 'Bearer' && secret ? await apiTokenService(db()).authenticate(secret) : null;
+		if (!event.locals.user) return json({ error: 'Unknown or revoked API token' }, { status: 401 });
+		return resolve(event);
+	}
 	const session = (await event.locals.auth()) as { uid?: number } | null;
 	event.locals.user = typeof session?.uid === 'number' ? await userService(db()).sessionUser(session.uid) : null;
 	return resolve(event);
@@ -31,7 +58,7 @@ const guardHandle: Handle = async ({ event, resolve }) => {
 	error(403, message);
 };
 
-export const handle = sequence(authHandle, userHandle, guardHandle);
+export const handle = sequence(originHandle, authHandle, userHandle, guardHandle);
 
 export const handleError: HandleServerError = ({ error: err, status, message }) => {
 	const errorId = randomUUID();

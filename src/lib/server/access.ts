@@ -26,7 +26,31 @@ export const ROUTE_ACCESS: Record<string, Partial<Record<Method, Audience>>> = {
 	'/api/cases': { GET: everyone, POST: editors },
 	'/api/cases/[id=id]': { GET: everyone },
 	'/api/users': { GET: staff, POST: admins },
-	'/api/users/[id=id]': { PATCH: admins }
+	'/api/users/[id=id]': { PATCH: admins },
+	// Originals: technicians and admins upload; whoever sees the case reads its items (clients
+	// only in cases they are members of, which the item service checks).
+	'/api/cases/[id=id]/items': { GET: everyone, POST: editors },
+	'/api/items/[id=id]': { GET: everyone },
+	'/api/items/[id=id]/preview': { GET: everyone },
+	'/api/items/[id=id]/original': { GET: everyone },
+	// Runs: staff read; technicians and admins request, cancel and replay. Clients see no run
+	// until a result is released to them (later), so the table keeps them out for now.
+	'/api/items/[id=id]/runs': { GET: staff, POST: editors },
+	'/api/runs/[id=id]': { GET: staff },
+	'/api/runs/[id=id]/result': { GET: staff },
+	'/api/runs/[id=id]/preview': { GET: staff },
+	'/api/runs/[id=id]/replay': { POST: editors },
+	'/api/runs/[id=id]/cancel': { POST: editors },
+	'/api/cases/[id=id]/custody': { GET: staff },
+	'/api/items/[id=id]/custody': { GET: staff },
+	'/api/items/[id=id]/premis': { GET: staff },
+	'/api/custody/verify': { GET: staff },
+	'/custody': { GET: staff, POST: staff },
+	'/profile': { GET: everyone, POST: everyone },
+	'/api/tokens': { GET: everyone, POST: everyone },
+	'/api/tokens/[id=id]': { DELETE: everyone },
+	'/dev/mailbox': { GET: everyone },
+	'/api/dev/mailbox': { GET: everyone }
 };
 
 export type AccessDecision = 'allow' | 'anonymous' | 'forbidden' | 'unlisted';
