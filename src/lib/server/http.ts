@@ -31,7 +31,8 @@ export async function readJson<S extends z.ZodType>(request: Request, schema: S)
 	try {
 		body = await request.json();
 	} catch {
-		throw new HttpError(400, 'Malformed JSON body');
+		// '' names the whole body, as in fieldErrors: a client shows it where it shows field messages.
+		throw new HttpError(400, 'Malformed JSON body', { '': ['The body is not valid JSON'] });
 	}
 	return parseWith(schema, body);
 }
