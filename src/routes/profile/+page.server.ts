@@ -29,6 +29,7 @@ export const actions: Actions = {
 					throw err;
 				}
 			);
-		return revoked ? { revoked: true } : fail(404, { fields: { id: ['Unknown or already revoked token'] } });
+		const notFound: Record<string, string[]> = { id: ['Unknown or already revoked token'] };
+		return revoked ? { revoked: true } : fail(404, { fields: notFound });
 	}
 };

@@ -1,0 +1,37 @@
+/** Shared steps for the end-to-end tests: the demo accounts and signing in as one of them. */
+import { expect, type Page } from '@playwright/test';
+import type { Role } from '../../src/lib/roles';
+
+/** The seeded demo accounts (src/lib/server/demo/scenario.ts). */
+export const DEMO: Record<Role, { email: string; password: string; name: string }> = {
+	admin: { email: 'admin@stillpoint.example', password: 'demo-admin-pass', name: 'Avery Quist (admin)' },
+	technician: { email: 'tech@stillpoint.example', password: 'demo-tech-pass', name: 'Tamsin Vell (technician)' },
+	supervisor: { email: 'supervisor@stillpoint.example', password: 'demo-super-pass', name: 'Orrin Blaydes (supervisor)' },
+	client: { email: 'client@stillpoint.example', password: 'demo-client-pass', name: 'Pell Marrow (client)' }
+};
+
+/** The root layout marks <html> once Svelte has hydrated; clicking earlier can miss handlers. */
+export async function waitForHydration(page: Page): Promise<void> {
+	await page.locator('html[data-hydrated]').waitFor({ state: 'attached' });
+}
+
+/**
+ * Sign in through the real form and land on home. Pass `javascript: false` for a context
+ * created with JavaScript disabled, where the page never hydrates.
+ */
+export async function signIn(page: Page, role: Role, options: { javascript?: boolean } = {}): Promise<void> {
+	await page.goto('/signin');
+	if (options.javascript !== false) await waitForHydration(page);
+	await page.getByLabel('E-mail').fill(DEMO[role].email);
+	await page.getByLabel('Password').fill(DEMO[role].password);
+	await page.getByRole('button', { name: 'Sign in' }).click();
+	await expect(page).toHaveURL((url) => url.pathname === '/');
+	if (options.javascript !== false) await waitForHydration(page);
+}
+
+/** Wait until a client-fetched table has finished loading (it sets aria-busy while fetching). */
+export async function tableLoaded(page: Page, name: string) {
+	const table = page.getByRole('table', { name, exact: true });
+	await expect(table).toHaveAttribute('aria-busy', 'false');
+	return table;
+}
