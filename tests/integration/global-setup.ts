@@ -18,7 +18,8 @@ import { migrationSource } from './support/migrations';
 const HOST = '127.0.0.1';
 const PORT = Number(process.env.IT_PORT ?? 4310);
 const DATABASE_NAME = process.env.IT_DATABASE_NAME ?? 'stillpoint_it';
-const QUEUE_PREFIX = 'stillpoint_it';
+// Derived from the database, so two suites run side by side never touch each other's queue keys.
+const QUEUE_PREFIX = DATABASE_NAME;
 const SIGNIN_MAX_FAILURES = Number(process.env.SIGNIN_MAX_FAILURES ?? 5);
 const BUILD_DIR = resolve('build');
 // The server runs from a copy, so a rebuild during the run (another terminal) cannot pull chunks

@@ -1,0 +1,7 @@
+import { json } from '@sveltejs/kit';
+import { apiCall } from '$lib/server/http';
+import { runs } from '$lib/server/runs';
+import type { RequestHandler } from './$types';
+
+export const POST: RequestHandler = ({ locals, params }) =>
+	apiCall(async () => json(await runs().cancel(locals.user!, Number(params.id))));
