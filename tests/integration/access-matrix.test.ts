@@ -33,7 +33,7 @@ const CALLERS: Caller[] = ['anonymous', 'admin', 'technician', 'supervisor', 'cl
  * `signin` → the sign-in page with the way back, `home` → '/', `case` → the new case's page,
  * `away` → anywhere (the sign-out redirect).
  */
-type Expected = 200 | 201 | 400 | 401 | 403 | 404 | 'signin' | 'home' | 'case' | 'away';
+type Expected = 200 | 201 | 202 | 400 | 401 | 403 | 404 | 409 | 'signin' | 'home' | 'case' | 'away';
 /** In the order of CALLERS: anonymous, admin, technician, supervisor, client. */
 type Row5 = [Expected, Expected, Expected, Expected, Expected];
 
@@ -48,6 +48,8 @@ interface Fixtures {
 	hiddenItem: number;
 	/** An API token that belongs to the demo admin. */
 	adminToken: number;
+	/** A queued run on the hidden item (no worker runs during the matrix, so it stays queued). */
+	queuedRun: number;
 }
 
 interface Row {
@@ -80,6 +82,8 @@ async function pngFor(caller: Caller, name = `matrix-${caller}.png`): Promise<Fo
 async function itemsNamed(name: string) {
 	return Number((await testDb()('items').where({ original_name: name }).count({ n: '*' }).first())?.n);
 }
+const RUN_BODY = { method: 'wiener', psf: { kind: 'line', length: 5, angleDeg: 0 }, params: {} };
+
 async function usersWithEmail(email: string) {
 	return Number((await testDb()('users').where({ email }).count({ n: '*' }).first())?.n);
 }
@@ -149,6 +153,30 @@ const TABLE: Row[] = [
 	{ route: '/api/items/[id=id]/preview', method: 'GET', path: (f) => `/api/items/${f.hiddenItem}/preview`, expect: [401, 200, 200, 200, 404] },
 	{ route: '/api/items/[id=id]/original', method: 'GET', path: (f) => `/api/items/${f.hiddenItem}/original`, expect: [401, 200, 200, 200, 404] },
 
+	// ── runs (issue 4 §6: technicians and admins create, cancel and replay; supervisors read;
+	//    clients see nothing until a result is released to them) ──
+	{ route: '/api/items/[id=id]/runs', method: 'GET', path: (f) => `/api/items/${f.hiddenItem}/runs`, expect: [401, 200, 200, 200, 403] },
+	{ route: '/api/items/[id=id]/runs', method: 'POST', path: (f) => `/api/items/${f.hiddenItem}/runs`, expect: [401, 202, 202, 403, 403],
+		request: () => ({ json: RUN_BODY }) },
+	{ route: '/api/runs/[id=id]', method: 'GET', path: (f) => `/api/runs/${f.queuedRun}`, expect: [401, 200, 200, 200, 403] },
+	{ route: '/api/runs/[id=id]/result', method: 'GET', path: (f) => `/api/runs/${f.queuedRun}/result`, expect: [401, 404, 404, 404, 403],
+		note: 'a queued run has no result yet' },
+	{ route: '/api/runs/[id=id]/preview', method: 'GET', path: (f) => `/api/runs/${f.queuedRun}/preview`, expect: [401, 404, 404, 404, 403],
+		note: 'a queued run has no preview yet' },
+	{ route: '/api/runs/[id=id]/replay', method: 'POST', path: (f) => `/api/runs/${f.queuedRun}/replay`, expect: [401, 409, 409, 403, 403],
+		request: () => ({ json: {} }), note: 'only a succeeded run can be replayed' },
+	{ route: '/api/runs/[id=id]/cancel', method: 'POST', path: (f) => `/api/runs/${f.queuedRun}/cancel`, expect: [401, 200, 200, 403, 403],
+		request: async (_c, f) => {
+			await testDb()('runs').where({ id: f.queuedRun }).update({ status: 'queued' });
+			return { json: {} };
+		},
+		effect: async (_c, allowed, f) =>
+			expect((await testDb()('runs').where({ id: f.queuedRun }).first()).status).toBe(allowed ? 'cancelled' : 'queued') },
+
+	// ── blur estimation (issue 7 §6: staff ask for a proposed kernel) ──
+	{ route: '/api/items/[id=id]/estimate', method: 'POST', path: (f) => `/api/items/${f.hiddenItem}/estimate`, expect: [401, 200, 200, 200, 403],
+		request: () => ({ json: {} }), note: 'a 16 × 16 original: the answer is "no confident blur", still a 200' },
+
 	// ── custody (issue 4 §4: the lab's record; clients read released reports, not the ledger) ──
 	{ route: '/api/items/[id=id]/custody', method: 'GET', path: (f) => `/api/items/${f.hiddenItem}/custody`, expect: [401, 200, 200, 200, 403] },
 	{ route: '/api/items/[id=id]/premis', method: 'GET', path: (f) => `/api/items/${f.hiddenItem}/premis`, expect: [401, 200, 200, 200, 403] },
@@ -204,6 +232,9 @@ beforeAll(async () => {
 	const uploaded = await technician.post(`/api/cases/${fixtures.hiddenCase}/items`, { multipart: await pngFor('anonymous', 'matrix-fixture.png'), keepJar: true });
 	expect(uploaded.status).toBeLessThan(300);
 	fixtures.hiddenItem = (await readJson<{ id: number }>(uploaded)).id;
+	const queued = await technician.post(`/api/items/${fixtures.hiddenItem}/runs`, { json: RUN_BODY, keepJar: true });
+	expect(queued.status).toBe(202);
+	fixtures.queuedRun = (await readJson<{ id: number }>(queued)).id;
 	const adminId = (await knex('users').where({ email: 'admin@stillpoint.example' }).first()).id;
 	[fixtures.adminToken] = await knex('api_tokens').insert({
 		user_id: adminId,
@@ -238,7 +269,7 @@ async function assertAnswer(response: Response, expected: Expected, path: string
 	}
 }
 
-const isAllowed = (expected: Expected) => expected === 200 || expected === 201 || expected === 'case';
+const isAllowed = (expected: Expected) => expected === 200 || expected === 201 || expected === 202 || expected === 'case';
 
 describe.each(TABLE.map((row) => [`${row.method} ${row.route}${row.note ? ` (${row.note})` : ''}`, row] as const))(
 	'%s',
