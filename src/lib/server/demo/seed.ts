@@ -8,9 +8,17 @@ import { hashPassword } from '../passwords';
 import { caseRepository } from '../repositories/case.repository';
 import { userRepository } from '../repositories/user.repository';
 import { caseService } from '../services/case.service';
+import { seedDemoRestoration } from './demo-restoration';
 import { DEMO_CASES, DEMO_USERS } from './scenario';
 
-export async function seedDemo(knex: Knex): Promise<{ usersAdded: number; casesAdded: number }> {
+export interface SeedReport {
+	usersAdded: number;
+	casesAdded: number;
+	/** The demo photo and its queued run, when this seed added them. */
+	restoration: { itemId: number; runId: number } | null;
+}
+
+export async function seedDemo(knex: Knex, options: { withPhoto?: boolean } = {}): Promise<SeedReport> {
 	const users = userRepository(knex);
 	const cases = caseRepository(knex);
 	const service = caseService(knex);
@@ -35,5 +43,6 @@ export async function seedDemo(knex: Knex): Promise<{ usersAdded: number; casesA
 		if (demo.status !== 'open') await cases.setStatus(created.id, demo.status);
 		casesAdded++;
 	}
-	return { usersAdded, casesAdded };
+	const restoration = options.withPhoto ? await seedDemoRestoration(knex, byEmail.get('tech@stillpoint.example')!) : null;
+	return { usersAdded, casesAdded, restoration };
 }
