@@ -1,3 +1,4 @@
+import { seededRandom } from '../random';
 import type { KernelSpec } from './spec';
 
 /** Options of {@link randomShakePath}. */
@@ -8,18 +9,6 @@ export interface ShakePathOptions {
 	samples?: number;
 	/** Anxiety (erratic motion) in [0, 1]. @default drawn as 0.1·U(0, 1) as in the reference code */
 	anxiety?: number;
-}
-
-/** Deterministic 32-bit PRNG (mulberry32, common practice, no source) so a seed replays exactly. */
-function mulberry32(seed: number): () => number {
-	let a = seed >>> 0;
-	return () => {
-		a = (a + 0x6d2b79f5) >>> 0;
-		let t = a;
-		t = Math.imul(t ^ (t >>> 15), t | 1);
-		t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-		return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-	};
 }
 
 /**
@@ -36,7 +25,7 @@ export function randomShakePath(seed: number, opts: ShakePathOptions = {}): Extr
 	const n = opts.samples ?? 500;
 	if (!(length > 0 && length <= 512)) throw new RangeError(`length must lie in (0, 512], got ${length}`);
 	if (!Number.isInteger(n) || n < 2 || n > 2000) throw new RangeError(`samples must be an integer in [2, 2000], got ${n}`);
-	const rand = mulberry32(seed);
+	const rand = seededRandom(seed);
 	const gauss = () => Math.sqrt(-2 * Math.log(1 - rand())) * Math.cos(2 * Math.PI * rand());
 	const anxiety = opts.anxiety ?? 0.1 * rand();
 	if (!(anxiety >= 0 && anxiety <= 1)) throw new RangeError(`anxiety must lie in [0, 1], got ${anxiety}`);

@@ -1,22 +1,7 @@
 import { createPlane, type Plane } from '../types';
 
-/** Seeded uniform PRNG (mulberry32, common practice, no source) so tests are reproducible. */
-export function seededRandom(seed: number): () => number {
-	let a = seed >>> 0;
-	return () => {
-		a = (a + 0x6d2b79f5) >>> 0;
-		let t = a;
-		t = Math.imul(t ^ (t >>> 15), t | 1);
-		t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-		return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-	};
-}
-
-/** Standard normal samples by the Box–Muller transform (Box & Muller, Ann. Math. Stat. 29(2), 1958). */
-export function seededGaussian(seed: number): () => number {
-	const u = seededRandom(seed);
-	return () => Math.sqrt(-2 * Math.log(1 - u())) * Math.cos(2 * Math.PI * u());
-}
+export { seededGaussian, seededRandom } from '../random';
+import { seededGaussian, seededRandom } from '../random';
 
 /**
  * A sharp synthetic test scene in [0.05, 0.95]: overlapping rectangles and discs of random grey

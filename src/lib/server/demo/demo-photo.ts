@@ -6,6 +6,7 @@
  */
 import sharp from 'sharp';
 import { buildKernel, createPlane, linearToSrgb, srgbToLinear, type KernelSpec, type Plane } from '../../imaging/index';
+import { seededGaussian } from '../../imaging/random';
 import { encodePng } from '../imaging/encode';
 
 export const DEMO_BLUR: KernelSpec = { kind: 'line', length: 15, angleDeg: 20 };
@@ -59,18 +60,6 @@ function blurValid(plane: Float32Array, width: number, height: number, kernel: P
 	return { data: out, width: outW, height: outH };
 }
 
-/** A small seeded generator (mulberry32) so the demo photo's bytes are the same on every machine. */
-function seeded(seed: number): () => number {
-	let a = seed >>> 0;
-	return () => {
-		a = (a + 0x6d2b79f5) >>> 0;
-		let t = a;
-		t = Math.imul(t ^ (t >>> 15), t | 1);
-		t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-		return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-	};
-}
-
 /** The blurred demo photo as a 16-bit RGB PNG, and the kernel that blurred it. */
 export async function demoBlurredPhoto(): Promise<{ png: Buffer; kernel: KernelSpec }> {
 	const kernel = buildKernel(DEMO_BLUR);
@@ -78,7 +67,7 @@ export async function demoBlurredPhoto(): Promise<{ png: Buffer; kernel: KernelS
 	const fullW = WIDTH + kw - 1;
 	const fullH = HEIGHT + kh - 1;
 	const { data } = await sharp(Buffer.from(sceneSvg(fullW, fullH))).removeAlpha().raw().toBuffer({ resolveWithObject: true });
-	const random = seeded(20261202);
+	const gaussian = seededGaussian(20261202);
 	const planes: Plane[] = [];
 	for (let c = 0; c < 3; c++) {
 		const linear = new Float32Array(fullW * fullH);
@@ -86,8 +75,8 @@ export async function demoBlurredPhoto(): Promise<{ png: Buffer; kernel: KernelS
 		const blurred = blurValid(linear, fullW, fullH, kernel);
 		const encoded = new Float32Array(blurred.data.length);
 		for (let p = 0; p < encoded.length; p++) {
-			// Box–Muller Gaussian noise, σ = 0.4 % of full scale, added in linear light like sensor noise.
-			const noise = Math.sqrt(-2 * Math.log(1 - random())) * Math.cos(2 * Math.PI * random()) * 0.004;
+			// Gaussian noise, σ = 0.4 % of full scale, added in linear light like sensor noise.
+			const noise = gaussian() * 0.004;
 			encoded[p] = linearToSrgb(Math.min(1, Math.max(0, blurred.data[p] + noise)));
 		}
 		planes.push(createPlane(HEIGHT, WIDTH, encoded));
