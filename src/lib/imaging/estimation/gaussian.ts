@@ -1,0 +1,102 @@
+import type { AnalysisBand } from './band';
+import { bandMarks, type FitProfile, type OverlayMark } from './overlay';
+import { radialMean } from './radial-profile';
+
+/** A Gaussian-blur reading of a spectrum (see {@link estimateGaussianFalloff}). */
+export interface GaussianEstimate {
+	/** Standard deviation σ of the Gaussian PSF, pixels; 0 when the fall-off shows no Gaussian term. */
+	sigma: number;
+	/** Exponent α of the scene's power law P ∝ ρ^−α fitted alongside. */
+	powerLawExponent: number;
+	/**
+	 * Evidence in [0, GAUSSIAN_CONFIDENCE_CAP]: the cap times the share of the pure power law's
+	 * squared misfit that the Gaussian term removes.
+	 */
+	confidence: number;
+	profile: FitProfile;
+	marks: OverlayMark[];
+}
+
+/**
+ * Highest confidence a Gaussian reading can reach: without spectral zeros, a Gaussian fall-off
+ * cannot be told apart for certain from a scene that simply holds little fine detail.
+ */
+export const GAUSSIAN_CONFIDENCE_CAP = 0.6;
+
+/** Least squares of y on the given columns; returns the coefficients and the residual sum of squares. */
+function leastSquares(columns: Float64Array[], y: Float64Array): { coef: number[]; ssr: number } {
+	const k = columns.length;
+	const a = Array.from({ length: k }, (_, i) => Array.from({ length: k + 1 }, (_, j) => {
+		const other = j < k ? columns[j] : y;
+		let s = 0;
+		for (let t = 0; t < y.length; t++) s += columns[i][t] * other[t];
+		return s;
+	}));
+	// Gauss–Jordan elimination with partial pivoting on the normal equations (k ≤ 3).
+	for (let col = 0; col < k; col++) {
+		let pivot = col;
+		for (let row = col + 1; row < k; row++) if (Math.abs(a[row][col]) > Math.abs(a[pivot][col])) pivot = row;
+		[a[col], a[pivot]] = [a[pivot], a[col]];
+		for (let row = 0; row < k; row++) {
+			if (row === col || a[col][col] === 0) continue;
+			const f = a[row][col] / a[col][col];
+			for (let j = col; j <= k; j++) a[row][j] -= f * a[col][j];
+		}
+	}
+	const coef = a.map((row, i) => (row[i] !== 0 ? row[k] / row[i] : 0));
+	let ssr = 0;
+	for (let t = 0; t < y.length; t++) {
+		let fitted = 0;
+		for (let i = 0; i < k; i++) fitted += coef[i] * columns[i][t];
+		ssr += (y[t] - fitted) ** 2;
+	}
+	return { coef, ssr };
+}
+
+/**
+ * Estimate an isotropic Gaussian blur from the ring-averaged power spectrum where the blur has no
+ * zeros. With the scene's spectrum modelled as a power law (natural images: P ∝ ρ^−α, α ≈ 2) and
+ * the Gaussian's H(ρ) = exp(−2π²σ²ρ²), the noise-free power obeys
+ * ln(P̄(ρ) − σ_n²) = a − α·ln ρ − 4π²σ²·ρ², fitted by least squares over the band (ρ = r/N cycles per
+ * pixel), so σ = √(−c / 4π²) from the ρ² coefficient c (σ = 0 when c ≥ 0). The noise power σ_n² is
+ * subtracted first, since the floor would otherwise bend the fall-off and bias σ low.
+ * @see Gonzalez & Woods, Digital Image Processing, 4th ed., 2018, §4.8 (Gaussian transfer function);
+ *   D. J. Field, "Relations between the statistics of natural images and the response properties of
+ *   cortical cells", J. Opt. Soc. Am. A 4(12):2379–2394, 1987, doi:10.1364/JOSAA.4.002379 (power-law
+ *   spectra; DOI from memory).
+ * @returns null when fewer than 8 consecutive rings from the band's inner edge stand above the noise.
+ * @throws RangeError for a map that is not N×N or a negative noise σ.
+ */
+export function estimateGaussianFalloff(power: Float64Array, n: number, band: AnalysisBand, noiseSigma: number): GaussianEstimate | null {
+	if (power.length !== n * n) throw new RangeError(`map holds ${power.length} values, expected ${n}×${n}`);
+	if (!(noiseSigma >= 0)) throw new RangeError(`noise σ must be ≥ 0, got ${noiseSigma}`);
+	const ring = radialMean(power, n, band.rMax);
+	const floor = noiseSigma * noiseSigma;
+	const rs: number[] = [];
+	for (let r = band.rMin; r <= band.rMax && ring[r] > floor; r++) rs.push(r);
+	if (rs.length < 8) return null;
+	const rho = Float64Array.from(rs, (r) => r / n);
+	const y = Float64Array.from(rs, (r) => Math.log(ring[r] - floor));
+	const one = rho.map(() => 1);
+	const logRho = rho.map(Math.log);
+	const rho2 = rho.map((p) => p * p);
+	const withGaussian = leastSquares([one, logRho, rho2], y);
+	const powerLaw = leastSquares([one, logRho], y);
+	const c = withGaussian.coef[2];
+	const sigma = c < 0 ? Math.sqrt(-c / (4 * Math.PI * Math.PI)) : 0;
+	const explained = powerLaw.ssr > 0 ? Math.max(0, 1 - withGaussian.ssr / powerLaw.ssr) : 0;
+	const model = Float64Array.from(rho, (p, i) => withGaussian.coef[0] + withGaussian.coef[1] * logRho[i] + c * p * p);
+	const marks = bandMarks(n, band.rMin, band.rMax);
+	if (sigma > 0) {
+		// |H| = ½ where 2π²σ²ρ² = ln 2.
+		const halfRadius = (Math.sqrt(Math.LN2 / 2) / (Math.PI * sigma)) * n;
+		marks.unshift({ kind: 'circle', role: 'half-transfer', cx: n / 2, cy: n / 2, r: halfRadius });
+	}
+	return {
+		sigma,
+		powerLawExponent: -withGaussian.coef[1],
+		confidence: sigma > 0 ? GAUSSIAN_CONFIDENCE_CAP * explained : 0,
+		profile: { axis: 'radius', start: band.rMin, observed: Float32Array.from(y), model: Float32Array.from(model) },
+		marks
+	};
+}
