@@ -15,9 +15,11 @@ export type { FftBackend } from './fft/backend';
 export type { BlockParallelism } from './fft/parallel';
 export { FftJsBackend } from './fft/fftjs-backend';
 export { NdarrayFftBackend } from './fft/ndarray-backend';
-export { DefaultFftBackend, defaultFftBackend } from './fft/default-backend';
+export { DefaultFftBackend, defaultFftBackend, setDefaultFftBackend } from './fft/default-backend';
+export { PffftBackend, PFFFT_PACKAGE } from './fft/pffft-backend';
+export { loadPffftBackend, type PffftLoadOptions } from './fft/pffft-loader';
 export { rfft2, rfft2Buffer, irfft2, type HalfSpectrum } from './fft/real-fft';
-export { nextPowerOfTwo, nextSmoothLength } from './fft/fast-size';
+export { nextPowerOfTwo, nextSmoothLength, nextSmoothMultiple, isSmooth } from './fft/fast-size';
 export { type ConvolutionJob, convolvePairs, kernelBlockSpectrum, tileLayout } from './restoration/block-convolution';
 export { wienerDeconvolve, type WienerOptions } from './restoration/wiener';
 export { richardsonLucy, type RichardsonLucyOptions, type RichardsonLucyResult } from './restoration/richardson-lucy';
@@ -27,3 +29,14 @@ export { chooseAutoSettings, type AutoSettings } from './restoration/auto';
 export { psnr } from './metrics/psnr';
 export { ssim, type SsimOptions } from './metrics/ssim';
 export { randomShakePath, type ShakePathOptions } from './kernels/shake';
+export {
+	estimateBlur,
+	estimateNoise,
+	type BlurEstimate,
+	type BlurProposal,
+	type BlurVerdict,
+	type EstimateBlurOptions,
+	type NoiseEstimate,
+	type Overlay,
+	type Region
+} from './estimation/index';
