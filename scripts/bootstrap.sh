@@ -19,12 +19,14 @@ for cmd in "${!NEEDED[@]}"; do
 		missing+=("${NEEDED[$cmd]}")
 	fi
 done
+# The demo photo and the benchmark scenes are SVG drawn with the DejaVu faces.
+[ -f /usr/share/fonts/truetype/dejavu/DejaVuSans.ttf ] || missing+=(fonts-dejavu-core)
 if [ ${#missing[@]} -gt 0 ]; then
 	[ "$(id -u)" -eq 0 ] || die "missing Debian packages (${missing[*]}); run as root or install them"
 	log "installing Debian packages: ${missing[*]}"
 	export DEBIAN_FRONTEND=noninteractive
 	apt-get update -qq
-	apt-get install -y -qq --no-install-recommends "${missing[@]}" fonts-dejavu-core >/dev/null
+	apt-get install -y -qq --no-install-recommends "${missing[@]}" >/dev/null
 	# The packaged services start system-wide instances; Stillpoint runs its own private ones.
 	for svc in mariadb redis-server; do
 		service "$svc" stop >/dev/null 2>&1 || true
