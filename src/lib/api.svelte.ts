@@ -70,3 +70,62 @@ export class RemoteList<T> {
 		}
 	}
 }
+
+/** An original as the items API sends it (GET /api/items/{id}, the case's item list, an upload's answer). */
+export interface ItemSummary {
+	id: number;
+	caseId: number;
+	originalName: string;
+	sha256: string;
+	md5: string;
+	sizeBytes: number;
+	format: string;
+	width: number;
+	height: number;
+	bitDepth: number;
+	channels: number;
+	hasIcc: boolean;
+	analysis: { clippedFraction?: number; noiseSigma?: number[] } | null;
+	uploadedBy: { id: number; name: string };
+	/** A Date when it comes from a page's load, an ISO string from fetch. */
+	createdAt: string | Date;
+	previewUrl: string | null;
+	originalUrl: string;
+	duplicate?: boolean;
+}
+
+/** A restoration run as GET /api/runs/{id} and GET /api/items/{id}/runs send it. */
+export interface RunSummary {
+	id: number;
+	itemId: number;
+	caseId: number;
+	requestedBy: { id: number; name: string };
+	replayOf: number | null;
+	method: string;
+	psf: unknown;
+	params: unknown;
+	engineVersion: string;
+	status: 'queued' | 'running' | 'succeeded' | 'failed' | 'cancelled';
+	progress: number;
+	error: string | null;
+	resultSha256: string | null;
+	createdAt: string | Date;
+	startedAt: string | Date | null;
+	finishedAt: string | Date | null;
+	replayMatches: boolean | null;
+	latestReplay: { id: number; status: string; matches: boolean | null } | null;
+}
+
+/** POST JSON to the API; a refusal becomes an Error carrying the server's `{error}` message. */
+export async function postJson<T>(url: string, body: unknown = {}): Promise<T> {
+	const response = await fetch(url, {
+		method: 'POST',
+		headers: { accept: 'application/json', 'content-type': 'application/json' },
+		body: JSON.stringify(body)
+	});
+	const answer = await response.json().catch(() => null);
+	if (!response.ok) {
+		throw new Error(answer?.error ? `${answer.error} (${response.status})` : `The server answered ${response.status}`);
+	}
+	return answer as T;
+}

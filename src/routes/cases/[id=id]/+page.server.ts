@@ -3,6 +3,8 @@ import { addMemberSchema } from '$lib/schemas/case';
 import { db } from '$lib/server/db';
 import { DomainError, NotFoundError } from '$lib/server/errors';
 import { caseService } from '$lib/server/services/case.service';
+import { itemJson, itemService } from '$lib/server/services/item.service';
+import { storage } from '$lib/server/storage';
 import { userService } from '$lib/server/services/user.service';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -25,7 +27,9 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 				.map((u) => ({ id: u.id, name: u.name, role: u.role }))
 		: [];
 
-	return { ...detail, canAddMembers, candidates };
+	const items = (await itemService(db(), storage()).listForCase(user, detail.case.id)).map((row) => itemJson(row, { withExif: false }));
+
+	return { ...detail, canAddMembers, candidates, items, canUpload: canAddMembers };
 };
 
 export const actions: Actions = {
