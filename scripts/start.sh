@@ -45,6 +45,8 @@ npx tsx workers/index.ts &
 pids+=($!)
 node build &
 pids+=($!)
+# Once the worker has restored the demo photo, review and release it for the demo client.
+npx tsx scripts/demo-release.ts &
 
 for _ in $(seq 1 100); do
 	curl -fsS -o /dev/null "$ORIGIN/signin" 2>/dev/null && break

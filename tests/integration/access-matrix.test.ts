@@ -84,6 +84,19 @@ async function itemsNamed(name: string) {
 }
 const RUN_BODY = { method: 'wiener', psf: { kind: 'line', length: 5, angleDeg: 0 }, params: {} };
 
+const DEMO_EMAIL: Record<Role, string> = {
+	admin: 'admin@stillpoint.example',
+	technician: 'tech@stillpoint.example',
+	supervisor: 'supervisor@stillpoint.example',
+	client: 'client@stillpoint.example'
+};
+/** Runs this caller queued on the item through the workbench form (its angle, 31.25°, is used nowhere else). */
+async function formRunsBy(caller: Caller, itemId: number) {
+	if (caller === 'anonymous') return 0;
+	const user = await testDb()('users').where({ email: DEMO_EMAIL[caller] }).first();
+	const rows = await testDb()('runs').where({ item_id: itemId, requested_by: user.id }).select('psf');
+	return rows.filter((row) => (typeof row.psf === 'string' ? row.psf : JSON.stringify(row.psf)).includes('31.25')).length;
+}
 async function usersWithEmail(email: string) {
 	return Number((await testDb()('users').where({ email }).count({ n: '*' }).first())?.n);
 }
@@ -114,6 +127,12 @@ const TABLE: Row[] = [
 		},
 		effect: async (_c, allowed, f) =>
 			expect(await testDb()('case_members').where({ case_id: f.hiddenCase, user_id: f.target }).count({ n: '*' })).toEqual([{ n: allowed ? 1 : 0 }]) },
+	{ route: '/cases/[id=id]/items/[itemId=id]', method: 'GET', path: (f) => `/cases/${f.hiddenCase}/items/${f.hiddenItem}`, expect: ['signin', 200, 200, 200, 404],
+		note: 'issue 5: the item workbench; an original in a case the client is not a member of does not exist for them' },
+	{ route: '/cases/[id=id]/items/[itemId=id]', method: 'POST', path: (f) => `/cases/${f.hiddenCase}/items/${f.hiddenItem}?/queue`, expect: ['signin', 200, 200, 403, 403],
+		request: () => ({ form: { kernelKind: 'line', length: '9', angleDeg: '31.25', radius: '3', sigma: '1.5', method: 'wiener', nsrAuto: 'true', nsr: '0.01', iterations: '30', tv: '0.002', linearLight: 'true' } }),
+		effect: async (c, allowed, f) => expect(await formRunsBy(c, f.hiddenItem)).toBe(allowed ? 1 : 0),
+		note: 'issue 4 §6: technicians and admins queue runs; the workbench form goes through the run service' },
 	{ route: '/admin/users', method: 'GET', path: () => '/admin/users', expect: ['signin', 200, 403, 403, 403] },
 	{ route: '/admin/users', method: 'POST', path: () => '/admin/users?/create', expect: ['signin', 200, 403, 403, 403],
 		request: (c) => ({ form: { name: `Matrix page ${c}`, email: `matrix-page-${c}@stillpoint.test`, role: 'client', password: PASSWORD } }),
@@ -200,6 +219,35 @@ const TABLE: Row[] = [
 			return {};
 		},
 		note: 'only the owner can revoke a token; to anyone else it does not exist' },
+
+	// ── review and release (issue 6): the guard's answer per role on ids that do not exist; the
+	// flows themselves, and a client's 404 on unreleased work, are in review-release.test.ts ──
+	{ route: '/runs/[id=id]/submit', method: 'GET', path: () => '/runs/999999/submit', expect: ['signin', 404, 404, 403, 403] },
+	{ route: '/runs/[id=id]/submit', method: 'POST', path: () => '/runs/999999/submit', expect: ['signin', 404, 404, 403, 403],
+		request: () => ({ form: { statement: 'Matrix statement, long enough.' } }) },
+	{ route: '/review', method: 'GET', path: () => '/review', expect: ['signin', 200, 403, 200, 403] },
+	{ route: '/review/[id=id]', method: 'GET', path: () => '/review/999999', expect: ['signin', 404, 404, 404, 403] },
+	{ route: '/review/[id=id]', method: 'POST', path: () => '/review/999999?/approve', expect: ['signin', 404, 403, 404, 403],
+		request: () => ({ form: { comment: '' } }) },
+	{ route: '/portal', method: 'GET', path: () => '/portal', expect: ['signin', 403, 403, 403, 200] },
+	{ route: '/portal/items/[id=id]', method: 'GET', path: () => '/portal/items/999999', expect: ['signin', 403, 403, 403, 404] },
+	{ route: '/verify', method: 'GET', path: () => '/verify', expect: [200, 200, 200, 200, 200], note: 'public: anyone holding a report may check it' },
+	{ route: '/verify', method: 'POST', path: () => '/verify?/byId', expect: [200, 200, 200, 200, 200],
+		request: () => ({ form: { reportId: 'SPR-2026-0000-0000-0000-0000' } }) },
+	{ route: '/api/runs/[id=id]/proposals', method: 'POST', path: () => '/api/runs/999999/proposals', expect: [401, 404, 404, 403, 403],
+		request: () => ({ json: { statement: 'Matrix statement, long enough.' } }) },
+	{ route: '/api/proposals', method: 'GET', path: () => '/api/proposals', expect: [401, 200, 403, 200, 403] },
+	{ route: '/api/proposals/[id=id]', method: 'GET', path: () => '/api/proposals/999999', expect: [401, 404, 404, 404, 403] },
+	{ route: '/api/proposals/[id=id]/approve', method: 'POST', path: () => '/api/proposals/999999/approve', expect: [401, 404, 403, 404, 403],
+		request: () => ({ json: { comment: '' } }) },
+	{ route: '/api/proposals/[id=id]/return', method: 'POST', path: () => '/api/proposals/999999/return', expect: [401, 404, 403, 404, 403],
+		request: () => ({ json: { comment: 'Matrix: needs work' } }) },
+	{ route: '/api/proposals/[id=id]/release', method: 'POST', path: () => '/api/proposals/999999/release', expect: [401, 404, 403, 404, 403] },
+	...(['report', 'result', 'png', 'before', 'after'] as const).map((file): Row => ({
+		route: `/api/portal/items/[id=id]/${file}`, method: 'GET', path: () => `/api/portal/items/999999/${file}`, expect: [401, 403, 403, 403, 404]
+	})),
+	{ route: '/api/verify', method: 'POST', path: () => '/api/verify', expect: [200, 200, 200, 200, 200],
+		request: () => ({ json: { reportId: 'SPR-2026-0000-0000-0000-0000' } }), note: 'public; an unknown id is an answer (not genuine), not an error' },
 
 	// ── development mailbox (issue 6 §7; on in tests because DEV_MAILBOX_DIR is set) ──
 	{ route: '/dev/mailbox', method: 'GET', path: () => '/dev/mailbox', expect: ['signin', 200, 200, 200, 200] },

@@ -229,11 +229,13 @@ describe('who sees what', () => {
 		expect((await readJson<ApiError>(response)).error).toBe('Item not found');
 	});
 
-	test("a client gets 404 for the item list of a case they are not a member of, and reads their own case's items", async () => {
+	// Issue 6 §5: a client sees an item of their own case only once a result of it is released
+	// (tests/integration/review-release.test.ts covers the released side).
+	test("a client gets 404 for the item list of a case they are not a member of, and does not see their own case's unreleased items", async () => {
 		expect((await client.get(`/api/cases/${caseId}/items`)).status).toBe(404);
 		const own = await client.getJson<{ items: ItemBody[] }>(`/api/cases/${clientCaseId}/items`);
-		expect(own.items.map((i) => i.id)).toContain(memberItem.id);
-		expect((await client.get(`/api/items/${memberItem.id}`)).status).toBe(200);
+		expect(own.items.map((i) => i.id)).not.toContain(memberItem.id);
+		expect((await client.get(`/api/items/${memberItem.id}`)).status).toBe(404);
 	});
 
 	test('supervisors and clients cannot upload; anonymous callers must sign in', async () => {

@@ -13,6 +13,9 @@ const everyone: readonly Role[] = ['admin', 'technician', 'supervisor', 'client'
 const staff: readonly Role[] = ['admin', 'technician', 'supervisor'];
 const editors: readonly Role[] = ['admin', 'technician'];
 const admins: readonly Role[] = ['admin'];
+// Technical review and release: supervisors, and admins who can do everything (issue 6 §2, §3).
+const reviewers: readonly Role[] = ['admin', 'supervisor'];
+const clients: readonly Role[] = ['client'];
 
 export const ROUTE_ACCESS: Record<string, Partial<Record<Method, Audience>>> = {
 	'/': { GET: everyone },
@@ -21,6 +24,9 @@ export const ROUTE_ACCESS: Record<string, Partial<Record<Method, Audience>>> = {
 	'/cases': { GET: everyone },
 	'/cases/new': { GET: editors, POST: editors },
 	'/cases/[id=id]': { GET: everyone, POST: editors },
+	// The item workbench: whoever sees the case sees the original; the run history shows only to
+	// staff (the page leaves it out for clients) and only technicians and admins queue runs.
+	'/cases/[id=id]/items/[itemId=id]': { GET: everyone, POST: editors },
 	'/admin/users': { GET: admins, POST: admins },
 	'/api/me': { GET: everyone },
 	'/api/cases': { GET: everyone, POST: editors },
@@ -33,9 +39,10 @@ export const ROUTE_ACCESS: Record<string, Partial<Record<Method, Audience>>> = {
 	'/api/items/[id=id]': { GET: everyone },
 	'/api/items/[id=id]/preview': { GET: everyone },
 	'/api/items/[id=id]/original': { GET: everyone },
-	// Runs: staff read; technicians and admins request, cancel and replay. Clients see no run
-	// until a result is released to them (later), so the table keeps them out for now.
+	// Runs: staff read; technicians and admins request, cancel and replay. Clients never reach a
+	// run: a released result comes to them through /api/portal/items/… (issue 6 §5).
 	'/api/items/[id=id]/runs': { GET: staff, POST: editors },
+	'/api/items/[id=id]/estimate': { POST: ['admin', 'technician', 'supervisor'] },
 	'/api/runs/[id=id]': { GET: staff },
 	'/api/runs/[id=id]/result': { GET: staff },
 	'/api/runs/[id=id]/preview': { GET: staff },
@@ -49,6 +56,28 @@ export const ROUTE_ACCESS: Record<string, Partial<Record<Method, Audience>>> = {
 	'/profile': { GET: everyone, POST: everyone },
 	'/api/tokens': { GET: everyone, POST: everyone },
 	'/api/tokens/[id=id]': { DELETE: everyone },
+	// Review and release (issue 6). Technicians read a proposal's page (their e-mails link to it);
+	// only reviewers decide or release. The portal is the clients' own view of released items,
+	// and the services answer 404 for anything not released to the caller.
+	'/runs/[id=id]/submit': { GET: editors, POST: editors },
+	'/review': { GET: reviewers },
+	'/review/[id=id]': { GET: staff, POST: reviewers },
+	'/api/runs/[id=id]/proposals': { POST: editors },
+	'/api/proposals': { GET: reviewers },
+	'/api/proposals/[id=id]': { GET: staff },
+	'/api/proposals/[id=id]/approve': { POST: reviewers },
+	'/api/proposals/[id=id]/return': { POST: reviewers },
+	'/api/proposals/[id=id]/release': { POST: reviewers },
+	'/portal': { GET: clients },
+	'/portal/items/[id=id]': { GET: clients },
+	'/api/portal/items/[id=id]/report': { GET: clients },
+	'/api/portal/items/[id=id]/result': { GET: clients },
+	'/api/portal/items/[id=id]/png': { GET: clients },
+	'/api/portal/items/[id=id]/before': { GET: clients },
+	'/api/portal/items/[id=id]/after': { GET: clients },
+	// Anyone holding a report may check it, signed in or not (issue 6 §6).
+	'/verify': { GET: 'public', POST: 'public' },
+	'/api/verify': { POST: 'public' },
 	'/dev/mailbox': { GET: everyone },
 	'/api/dev/mailbox': { GET: everyone }
 };

@@ -18,7 +18,13 @@ export const CUSTODY_ACTIONS = {
 	replay_checked: 'validation',
 	result_viewed: null,
 	result_downloaded: 'dissemination',
-	original_downloaded: 'dissemination'
+	original_downloaded: 'dissemination',
+	review_submitted: null,
+	review_returned: null,
+	review_approved: 'validation',
+	released: 'dissemination',
+	report_downloaded: 'dissemination',
+	portal_viewed: null
 } as const satisfies Record<string, string | null>;
 
 export type CustodyAction = keyof typeof CUSTODY_ACTIONS;

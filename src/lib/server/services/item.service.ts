@@ -10,7 +10,9 @@ import { systemClock, type Clock } from '../clock';
 import { DomainError, NotFoundError } from '../errors';
 import { itemRepository, type ItemRow } from '../repositories/item.repository';
 import type { ObjectStorage } from '../storage';
+import { reportRepository } from '../repositories/report.repository';
 import { caseService } from './case.service';
+import { assertClientMayRead } from './item-access';
 import { custodyService } from './custody.service';
 
 /** What the API answers for an item; `exif` only on the single-item read, to keep lists small. */
@@ -54,6 +56,7 @@ export function itemService(knex: Knex, storage: ObjectStorage, clock: Clock = s
 			if (err instanceof DomainError && err.status === 404) throw new NotFoundError('Item');
 			throw err;
 		}
+		await assertClientMayRead(knex, user, item);
 		return item;
 	}
 
@@ -62,7 +65,10 @@ export function itemService(knex: Knex, storage: ObjectStorage, clock: Clock = s
 
 		async listForCase(user: SessionUser, caseId: number): Promise<ItemRow[]> {
 			await cases.get(user, caseId);
-			return items.listForCase(caseId);
+			const all = await items.listForCase(caseId);
+			if (user.role !== 'client') return all;
+			const released = await reportRepository(knex).releasedItemIds(caseId);
+			return all.filter((item) => released.has(item.id));
 		},
 
 		async openPreview(user: SessionUser, itemId: number): Promise<{ item: ItemRow; body: Readable }> {

@@ -1,0 +1,8 @@
+import { apiCall } from '$lib/server/http';
+import { portalFileResponse } from '$lib/server/portal-response';
+import { portal } from '$lib/server/review';
+import type { RequestHandler } from './$types';
+
+/** The result as a PNG, for viewers without TIFF support, as an attachment; each download is a custody event. Unreleased items answer 404. */
+export const GET: RequestHandler = ({ locals, params }) =>
+	apiCall(async () => portalFileResponse(await portal().download(locals.user!, Number(params.id), 'png')));
