@@ -21,6 +21,12 @@ export interface FftBackend {
 	 * runs it, so results stay bit-identical with or without it.
 	 */
 	readonly parallel?: import('./parallel').BlockParallelism;
+	/**
+	 * Optional fused overlap-save step for tile pairs [firstPair, endPair) of a job (the same
+	 * arithmetic as the generic convolvePairs, with the block kept in the backend's own memory).
+	 * Every thread runs the same code, so the bits do not depend on the partition.
+	 */
+	convolvePairs?(job: import('../restoration/block-convolution').ConvolutionJob, kernelSpectrum: Float64Array, firstPair: number, endPair: number): void;
 }
 
 /** Guard shared by backends: a 2-D transform needs positive integer sizes and a matching buffer. */

@@ -27,10 +27,19 @@ export class DefaultFftBackend implements FftBackend {
 	}
 }
 
-let shared: DefaultFftBackend | undefined;
+let shared: FftBackend | undefined;
 
 /** Process-wide default backend (plans and scratch lines are cached inside it). */
 export function defaultFftBackend(): FftBackend {
 	shared ??= new DefaultFftBackend();
 	return shared;
+}
+
+/**
+ * Make `backend` the default for calls that pass none (e.g. a Node entry point installs the PFFFT
+ * backend with its thread pool once at start-up). Its name goes into every run record, so results
+ * stay replayable; `undefined` restores the built-in default.
+ */
+export function setDefaultFftBackend(backend: FftBackend | undefined): void {
+	shared = backend;
 }

@@ -35,3 +35,22 @@ export function nextSmoothLength(n: number): number {
 	}
 	return best;
 }
+
+/** True when n ≥ 1 has no prime factor other than 2, 3 and 5. */
+export function isSmooth(n: number): boolean {
+	if (!Number.isInteger(n) || n < 1) return false;
+	for (const p of [2, 3, 5]) while (n % p === 0) n /= p;
+	return n === 1;
+}
+
+/**
+ * Smallest 5-smooth multiple of `multiple` (a power of two) that is ≥ n, i.e. multiple·m with m the
+ * next 5-smooth number ≥ n / multiple. PFFFT needs complex lengths divisible by 16 with its SIMD
+ * build, and the engine's real transforms halve the width, hence multiples of 16 and 32.
+ * @throws RangeError for n outside [1, 2^30] or a multiple that is not a power of two.
+ */
+export function nextSmoothMultiple(n: number, multiple: number): number {
+	if (!isPowerOfTwo(multiple)) throw new RangeError(`multiple must be a power of two, got ${multiple}`);
+	if (!Number.isFinite(n) || n < 1 || n > 2 ** 30) throw new RangeError(`length must lie in [1, 2^30], got ${n}`);
+	return multiple * nextSmoothLength(Math.ceil(n / multiple));
+}

@@ -46,22 +46,29 @@ export function rfft2(
 	return rfft2Buffer(real, rows, cols, backend);
 }
 
-/** Same as {@link rfft2} for a contiguous row-major Float32/Float64 buffer of rows × cols values. */
+/**
+ * Same as {@link rfft2} for a contiguous row-major Float32/Float64 buffer of rows × cols values.
+ * @param consume when true and `values` is a Float64Array of even width, it is used as the packed
+ *   work array and overwritten (saves one rows × cols Float64 allocation on large images). @default false
+ */
 export function rfft2Buffer(
 	values: Float32Array | Float64Array,
 	rows: number,
 	cols: number,
-	backend: FftBackend = defaultFftBackend()
+	backend: FftBackend = defaultFftBackend(),
+	consume = false,
+	/** Receives the half spectrum's 2·rows·(⌊cols/2⌋ + 1) numbers (even widths). @default a new array */
+	output?: Float64Array
 ): HalfSpectrum {
 	assertShape(rows, cols);
 	if (values.length !== rows * cols) {
 		throw new RangeError(`buffer holds ${values.length} values, expected ${rows * cols}`);
 	}
 	if (cols % 2 !== 0) return halfOfComplex(values, rows, cols, backend);
-	const z = new Float64Array(2 * rows * (cols / 2));
-	for (let i = 0; i < values.length; i++) z[i] = values[i];
+	// z[n, m] = x[n, 2m] + i·x[n, 2m+1] has the row-major layout of x itself.
+	const z = consume && values instanceof Float64Array ? values : Float64Array.from(values);
 	backend.fft2(z, rows, cols / 2, false);
-	return separate(z, rows, cols);
+	return separate(z, rows, cols, output);
 }
 
 /** cos and sin of sign·2πl/cols for l = 0 … cols/2. */
@@ -110,10 +117,11 @@ function realOfComplex(spectrum: HalfSpectrum, backend: FftBackend, out: Float64
 	return out;
 }
 
-function separate(z: Float64Array, rows: number, cols: number): HalfSpectrum {
+function separate(z: Float64Array, rows: number, cols: number, output?: Float64Array): HalfSpectrum {
 	const mh = cols / 2;
 	const halfCols = mh + 1;
-	const out = new Float64Array(2 * rows * halfCols);
+	const out = output ?? new Float64Array(2 * rows * halfCols);
+	if (out.length !== 2 * rows * halfCols) throw new RangeError(`spectrum output holds ${out.length} numbers, expected ${2 * rows * halfCols}`);
 	const [cosTable, sinTable] = twiddles(cols, -1);
 	for (let k = 0; k < rows; k++) {
 		const kc = (rows - k) % rows;

@@ -12,7 +12,8 @@ import { nextPowerOfTwo } from '../fft/fast-size';
  * the "full" correlation, i.e. the adjoint.
  */
 export interface ConvolutionJob {
-	src: Float32Array;
+	/** Float32 (SharedArrayBuffer-backed for the thread pool) or Float64 (always run on the calling thread). */
+	src: Float32Array | Float64Array;
 	srcRows: number;
 	srcCols: number;
 	out: Float32Array;
@@ -87,6 +88,7 @@ export function assertConvolutionJob(job: ConvolutionJob): void {
  * the real and tile B in the imaginary part; since the kernel is real, one complex transform,
  * product and inverse convolve both, and the last (B − k + 1) rows/columns of each are exact linear
  * convolution values.
+ * A backend with its own fused `convolvePairs` (PFFFT keeps the block in WASM memory) runs it instead.
  * @see A. V. Oppenheim, R. W. Schafer, Discrete-Time Signal Processing, 3rd ed., Pearson 2010,
  *   §8.7.3 (overlap-save); Press et al., Numerical Recipes, 3rd ed., §12.3.1 (two real FFTs at once).
  */
@@ -98,6 +100,10 @@ export function convolvePairs(
 	endPair: number,
 	block: Float64Array = new Float64Array(2 * job.blockSize * job.blockSize)
 ): void {
+	if (backend.convolvePairs) {
+		backend.convolvePairs(job, kernelSpectrum, firstPair, endPair);
+		return;
+	}
 	const b = job.blockSize;
 	const layout = tileLayout(job);
 	for (let pair = firstPair; pair < endPair; pair++) {
@@ -126,9 +132,15 @@ export function convolveSerial(job: ConvolutionJob, backend: FftBackend, kernelS
 	convolvePairs(job, kernelSpectrum, backend, 0, tileLayout(job).pairs);
 }
 
-type Layout = ReturnType<typeof tileLayout>;
+/** Tile geometry of a job, from {@link tileLayout}. */
+export type TileLayout = ReturnType<typeof tileLayout>;
 
-function gatherTile(job: ConvolutionJob, layout: Layout, tile: number, block: Float64Array, part: 0 | 1): void {
+/**
+ * Copy the input block of `tile` into an interleaved complex B×B block starting at `offset` (0 for
+ * the real parts, 1 for the imaginary parts, plus the block's start in a larger array). Values
+ * outside a 'zero' source are skipped, so the block must be zero-filled first.
+ */
+export function gatherTile(job: ConvolutionJob, layout: TileLayout, tile: number, block: Float32Array | Float64Array, offset: number): void {
 	const b = job.blockSize;
 	const r0 = Math.floor(tile / layout.across) * layout.tileRows + job.rowOffset;
 	const c0 = (tile % layout.across) * layout.tileCols + job.colOffset;
@@ -139,7 +151,7 @@ function gatherTile(job: ConvolutionJob, layout: Layout, tile: number, block: Fl
 		if (wrap) r = ((r % srcRows) + srcRows) % srcRows;
 		else if (r < 0 || r >= srcRows) continue;
 		const rowBase = r * srcCols;
-		const blockBase = 2 * u * b + part;
+		const blockBase = 2 * u * b + offset;
 		if (wrap) {
 			for (let v = 0; v < b; v++) {
 				const c = (((c0 + v) % srcCols) + srcCols) % srcCols;
@@ -153,7 +165,8 @@ function gatherTile(job: ConvolutionJob, layout: Layout, tile: number, block: Fl
 	}
 }
 
-function scatterTile(job: ConvolutionJob, layout: Layout, tile: number, block: Float64Array, part: 0 | 1): void {
+/** Write the exact (last B − k + 1) rows/columns of a block, times `scale`, to the tile's place in the output. */
+export function scatterTile(job: ConvolutionJob, layout: TileLayout, tile: number, block: Float32Array | Float64Array, offset: number, scale = 1): void {
 	const b = job.blockSize;
 	const r0 = Math.floor(tile / layout.across) * layout.tileRows;
 	const c0 = (tile % layout.across) * layout.tileCols;
@@ -163,8 +176,8 @@ function scatterTile(job: ConvolutionJob, layout: Layout, tile: number, block: F
 	const skipCols = job.kernelCols - 1;
 	for (let u = 0; u < rows; u++) {
 		const outBase = (r0 + u) * job.outCols + c0;
-		const blockBase = 2 * ((u + skipRows) * b + skipCols) + part;
-		for (let v = 0; v < cols; v++) job.out[outBase + v] = block[blockBase + 2 * v];
+		const blockBase = 2 * ((u + skipRows) * b + skipCols) + offset;
+		for (let v = 0; v < cols; v++) job.out[outBase + v] = block[blockBase + 2 * v] * scale;
 	}
 }
 
@@ -179,6 +192,6 @@ export function convolve(job: ConvolutionJob, backend: FftBackend, kernelSpectru
 	else convolveSerial(job, backend, kernelSpectrum);
 }
 
-function isShared(a: Float32Array): boolean {
+function isShared(a: Float32Array | Float64Array): boolean {
 	return typeof SharedArrayBuffer !== 'undefined' && a.buffer instanceof SharedArrayBuffer;
 }

@@ -33,9 +33,17 @@ function borderWeights(projection: Float64Array, n: number): Float64Array {
  *   Processing 14(10):1448–1453, 2005, doi:10.1109/TIP.2005.854474 (discussion of edge tapering);
  *   the weighting follows the widely used `edgetaper` construction (common practice, no source).
  */
-export function edgeTaper(values: Float64Array | Float32Array, rows: number, cols: number, psf: Plane, backend: FftBackend = defaultFftBackend()): Float64Array {
+export function edgeTaper(
+	values: Float64Array | Float32Array,
+	rows: number,
+	cols: number,
+	psf: Plane,
+	backend: FftBackend = defaultFftBackend(),
+	/** Receives the result; may be `values` itself (all blurs are computed before any write). @default a new array */
+	output: Float64Array = new Float64Array(rows * cols)
+): Float64Array {
 	const [kh, kw] = psf.shape;
-	if (values.length !== rows * cols) throw new RangeError(`buffer holds ${values.length} values, expected ${rows * cols}`);
+	if (values.length !== rows * cols || output.length !== rows * cols) throw new RangeError(`buffers hold ${values.length} and ${output.length} values, expected ${rows * cols}`);
 	if (rows < kh || cols < kw) throw new RangeError(`image ${cols}×${rows} is smaller than the kernel ${kw}×${kh}`);
 	const rowProjection = new Float64Array(kh);
 	const colProjection = new Float64Array(kw);
@@ -50,34 +58,35 @@ export function edgeTaper(values: Float64Array | Float32Array, rows: number, col
 	}
 	const betaRows = borderWeights(rowProjection, rows);
 	const betaCols = borderWeights(colProjection, cols);
-	const src = Float32Array.from(values);
-	const blurred = new Float32Array(rows * cols);
-	convolve(
-		{
-			src,
-			srcRows: rows,
-			srcCols: cols,
-			out: blurred,
-			outRows: rows,
-			outCols: cols,
-			rowOffset: -((kh - 1) >> 1),
-			colOffset: -((kw - 1) >> 1),
-			kernel,
-			kernelRows: kh,
-			kernelCols: kw,
-			outside: 'wrap',
-			blockSize: chooseBlockSize(kh, kw, rows, cols)
-		},
-		backend
-	);
-	const out = new Float64Array(rows * cols);
-	for (let i = 0; i < rows; i++) {
-		const ar = 1 - betaRows[i];
-		for (let j = 0; j < cols; j++) {
-			const alpha = ar * (1 - betaCols[j]);
-			const p = i * cols + j;
-			out[p] = alpha * values[p] + (1 - alpha) * blurred[p];
+	// α = 1 (output = input) except within one kernel extent of the frame, where β > 0: the circular
+	// blur is only needed on that band, computed as four strips (top, bottom, and the two sides between).
+	const top = Math.min(kh, rows);
+	const bottom = Math.max(top, rows - kh);
+	const left = Math.min(kw, cols);
+	const right = Math.max(left, cols - kw);
+	const strips: [number, number, number, number][] = [[0, top, 0, cols], [bottom, rows, 0, cols], [top, bottom, 0, left], [top, bottom, right, cols]];
+	const blurs = strips.map(([r0, r1, c0, c1]) => {
+		const out = new Float32Array(Math.max(0, r1 - r0) * Math.max(0, c1 - c0));
+		if (out.length === 0) return out;
+		const job = {
+			src: values, srcRows: rows, srcCols: cols, out, outRows: r1 - r0, outCols: c1 - c0,
+			rowOffset: r0 - ((kh - 1) >> 1), colOffset: c0 - ((kw - 1) >> 1), kernel, kernelRows: kh, kernelCols: kw,
+			outside: 'wrap' as const, blockSize: chooseBlockSize(kh, kw, r1 - r0, c1 - c0)
+		};
+		convolve(job, backend);
+		return out;
+	});
+	if (output !== values) output.set(values);
+	strips.forEach(([r0, r1, c0, c1], s) => {
+		const blurred = blurs[s];
+		for (let i = r0; i < r1; i++) {
+			const ar = 1 - betaRows[i];
+			for (let j = c0, q = (i - r0) * (c1 - c0); j < c1; j++, q++) {
+				const alpha = ar * (1 - betaCols[j]);
+				const p = i * cols + j;
+				output[p] = alpha * values[p] + (1 - alpha) * blurred[q];
+			}
 		}
-	}
-	return out;
+	});
+	return output;
 }

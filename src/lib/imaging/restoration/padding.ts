@@ -13,11 +13,21 @@ export function reflectIndex(i: number, n: number): number {
  * reflection of the image (common practice, no source; "symmetric" mode of numpy.pad).
  * @throws RangeError when the image does not fit.
  */
-export function mirrorPad(src: ArrayLike<number>, h: number, w: number, rows: number, cols: number, top: number, left: number): Float64Array {
+export function mirrorPad(
+	src: ArrayLike<number>,
+	h: number,
+	w: number,
+	rows: number,
+	cols: number,
+	top: number,
+	left: number,
+	/** Receives the padded array (every element is written). @default a new array */
+	out: Float64Array = new Float64Array(rows * cols)
+): Float64Array {
 	if (top < 0 || left < 0 || top + h > rows || left + w > cols) {
 		throw new RangeError(`image ${w}×${h} at (${left}, ${top}) does not fit in ${cols}×${rows}`);
 	}
-	const out = new Float64Array(rows * cols);
+	if (out.length !== rows * cols) throw new RangeError(`output holds ${out.length} values, expected ${rows * cols}`);
 	const colIndex = new Int32Array(cols);
 	for (let j = 0; j < cols; j++) colIndex[j] = reflectIndex(j - left, w);
 	for (let i = 0; i < rows; i++) {

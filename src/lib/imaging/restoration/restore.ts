@@ -1,7 +1,7 @@
 import { clippedFraction } from '../analysis/clipping';
 import { estimateNoiseSigma } from '../analysis/noise';
 import { recoverability, type Recoverability } from '../analysis/recoverability';
-import { toLinear, toSrgb } from '../colour';
+import { linearToSrgb, toLinear } from '../colour';
 import type { FftBackend } from '../fft/backend';
 import { defaultFftBackend } from '../fft/default-backend';
 import { buildKernel } from '../kernels/build';
@@ -10,6 +10,7 @@ import { createPlane, planeValues, type Plane, type RasterImage } from '../types
 import { ENGINE_VERSION } from '../version';
 import { chooseAutoSettings, type AutoSettings } from './auto';
 import { richardsonLucy } from './richardson-lucy';
+import { Workspace } from './workspace';
 import { wienerDeconvolve, wienerPadding } from './wiener';
 
 /** What to run; every field is written to the run record as resolved. */
@@ -38,6 +39,8 @@ export interface RestoreHooks {
 	onProgress?: (done: number, total: number) => void;
 	signal?: AbortSignal;
 	fft?: FftBackend;
+	/** Buffers and kernel transfer functions shared by the channels of one image (restore() makes one per call). */
+	workspace?: Workspace;
 }
 
 /** The replayable record of one restoration. */
@@ -83,12 +86,12 @@ export function restorePlane(
 	const fft = hooks.fft ?? defaultFftBackend();
 	if (settings.method === 'wiener') {
 		hooks.signal?.throwIfAborted();
-		const out = wienerDeconvolve(plane, psf, { nsr: settings.nsr, regulariser: settings.regulariser, boundary: settings.boundary, fft });
+		const out = wienerDeconvolve(plane, psf, { nsr: settings.nsr, regulariser: settings.regulariser, boundary: settings.boundary, fft, workspace: hooks.workspace });
 		hooks.onProgress?.(1, 1);
 		return { plane: out };
 	}
 	const initial = settings.wienerStart
-		? wienerDeconvolve(plane, psf, { ...settings.wienerStart, boundary: settings.boundary === 'circular' ? 'circular' : 'taper', fft })
+		? wienerDeconvolve(plane, psf, { ...settings.wienerStart, boundary: settings.boundary === 'circular' ? 'circular' : 'taper', fft, workspace: hooks.workspace })
 		: undefined;
 	const result = richardsonLucy(plane, psf, {
 		iterations: settings.iterations,
@@ -164,17 +167,19 @@ export function restore(img: RasterImage, kernel: KernelSpec, options: RestoreOp
 	const unitsPerChannel = settings.method === 'wiener' ? 1 : Math.max(1, settings.iterations);
 	const total = channels * unitsPerChannel;
 	let iterationsRun: number | undefined;
+	const workspace = new Workspace();
+	const encode = linearLight && img.transfer === 'srgb';
 	const restored = working.planes.map((plane, c) => {
 		const result = restorePlane(plane, psf, settings, {
 			fft,
+			workspace,
 			signal: hooks.signal,
 			onProgress: (done) => hooks.onProgress?.(c * unitsPerChannel + done, total)
 		});
 		if (result.iterationsRun !== undefined) iterationsRun = Math.max(iterationsRun ?? 0, result.iterationsRun);
-		return clipUnit(result.plane);
+		return finishPlane(result.plane, encode);
 	});
-	const restoredImage: RasterImage = { ...working, planes: restored };
-	const image = linearLight && img.transfer === 'srgb' ? toSrgb(restoredImage) : restoredImage;
+	const image: RasterImage = { ...working, planes: restored, transfer: encode ? 'srgb' : working.transfer };
 	const [kh, kw] = psf.shape;
 	const padding =
 		settings.method === 'wiener' || settings.wienerStart
@@ -197,12 +202,18 @@ export function restore(img: RasterImage, kernel: KernelSpec, options: RestoreOp
 	return { image, record };
 }
 
-/** Values outside [0, 1] cannot be stored in the output file; clipping is recorded in the run record. */
-function clipUnit(plane: Plane): Plane {
-	const out = createPlane(plane.shape[0], plane.shape[1]);
-	const src = planeValues(plane);
-	for (let i = 0; i < src.length; i++) out.data[i] = Math.min(1, Math.max(0, src[i]));
-	return out;
+/**
+ * Values outside [0, 1] cannot be stored in the output file (clipping is recorded in the run record);
+ * then re-encode to sRGB when asked. Done in place on the restorer's own new plane, so no further
+ * full-size copies exist at the end of a large restoration (they set its peak memory).
+ */
+function finishPlane(plane: Plane, encode: boolean): Plane {
+	const values = planeValues(plane);
+	for (let i = 0; i < values.length; i++) {
+		const clipped = Math.min(1, Math.max(0, values[i]));
+		values[i] = encode ? linearToSrgb(clipped) : clipped;
+	}
+	return createPlane(plane.shape[0], plane.shape[1], values);
 }
 
 /** Channel mean, used only to pick auto settings once for all channels. */

@@ -4,6 +4,7 @@ import { irfft2, rfft2Buffer, type HalfSpectrum } from '../fft/real-fft';
 import { createPlane, planeValues, type Plane } from '../types';
 import { edgeTaper } from './edge-taper';
 import { mirrorPad } from './padding';
+import type { Workspace } from './workspace';
 
 /** Options of {@link wienerDeconvolve}. */
 export interface WienerOptions {
@@ -19,6 +20,12 @@ export interface WienerOptions {
 	boundary?: 'taper' | 'extended' | 'circular';
 	/** FFT implementation. @default the engine's default backend */
 	fft?: FftBackend;
+	/**
+	 * Buffers and kernel transfer functions kept across calls with the same PSF and plane size (the
+	 * channels of one image): the OTF is transformed once and no large array is re-allocated.
+	 * @default none (everything is allocated per call)
+	 */
+	workspace?: Workspace;
 }
 
 /** Geometry of the padded Wiener domain, for run records. */
@@ -52,7 +59,7 @@ export function kernelHalfSpectrum(psf: Plane, rows: number, cols: number, backe
 		const r = (a - ca + rows) % rows;
 		for (let b = 0; b < kw; b++) placed[r * cols + ((b - cb + cols) % cols)] += psf.get(a, b);
 	}
-	return rfft2Buffer(placed, rows, cols, backend);
+	return rfft2Buffer(placed, rows, cols, backend, true);
 }
 
 /**
@@ -90,12 +97,19 @@ export function wienerDeconvolve(plane: Plane, psf: Plane, opts: WienerOptions =
 	if (h < kh || w < kw) throw new RangeError(`image ${w}×${h} is smaller than the kernel ${kw}×${kh}`);
 	const pad = wienerPadding(h, w, [kh, kw], boundary, backend);
 	const src = planeValues(plane);
-	const domain =
-		boundary === 'circular'
-			? Float64Array.from(src)
-			: edgeTaper(mirrorPad(src, h, w, pad.rows, pad.cols, pad.top, pad.left), pad.rows, pad.cols, psf, backend);
-	const spectrum = rfft2Buffer(domain, pad.rows, pad.cols, backend);
-	const otf = kernelHalfSpectrum(psf, pad.rows, pad.cols, backend);
+	const ws = opts.workspace;
+	const size = pad.rows * pad.cols;
+	const domain = ws ? ws.float64('wiener.domain', size) : new Float64Array(size);
+	if (boundary === 'circular') domain.set(src);
+	else {
+		mirrorPad(src, h, w, pad.rows, pad.cols, pad.top, pad.left, domain);
+		edgeTaper(domain, pad.rows, pad.cols, psf, backend, domain);
+	}
+	// `domain` serves as the transform's work array and later receives the inverse: no extra copies.
+	const halfSize = 2 * pad.rows * (Math.floor(pad.cols / 2) + 1);
+	const spectrum = rfft2Buffer(domain, pad.rows, pad.cols, backend, true, ws && pad.cols % 2 === 0 ? ws.float64('wiener.spectrum', halfSize) : undefined);
+	const computeOtf = () => kernelHalfSpectrum(psf, pad.rows, pad.cols, backend);
+	const otf = ws ? ws.spectrum(`${pad.rows}×${pad.cols} ${backend.name}`, computeOtf) : computeOtf();
 	applyWienerGain(spectrum, otf, nsr, regulariser);
 	const restored = irfft2(spectrum, backend, domain);
 	const out = createPlane(h, w);
