@@ -1,3 +1,4 @@
+import { loadPffftBackend, setDefaultFftBackend } from '../../imaging/index';
 import { parseCliArgs, USAGE, UsageError } from './cli-args';
 import { ImageInputError } from './errors';
 import { PsfError } from './psf-file';
@@ -17,6 +18,8 @@ export async function runRestoreCli(argv: string[], stderr: { write(s: string): 
 			stderr.write(`${USAGE}\n`);
 			return 0;
 		}
+		// The WASM FFT, as in the worker, so both give the same bytes for the same engine version.
+		setDefaultFftBackend(await loadPffftBackend());
 		await restoreFile(args, say);
 		return 0;
 	} catch (e) {
