@@ -105,13 +105,17 @@ export function runService(knex: Knex, deps: RunServiceDeps) {
 		if (!canRun(user)) throw new ForbiddenError('Only technicians and administrators run restorations');
 	}
 
-	/** Insert a queued run with its custody event, then hand it to the queue. */
+	/**
+	 * Insert a queued run with its custody event, then hand it to the queue. The answer is the run
+	 * as accepted (queued): a fast worker may already be running it by the time the caller reads it.
+	 */
 	async function submit(user: SessionUser, row: Parameters<typeof runs.insert>[0], caseId: number, detail: Record<string, Json>): Promise<RunRow> {
 		const id = await knex.transaction(async (trx) => {
 			const runId = await runs.insert(row, trx);
 			await custody.record({ action: 'run_requested', actor: actorOf(user), caseId, itemId: row.itemId, runId, detail }, trx);
 			return runId;
 		});
+		const accepted = (await runs.findById(id))!;
 		try {
 			await deps.queue.enqueue(id);
 		} catch (err) {
@@ -119,7 +123,7 @@ export function runService(knex: Knex, deps: RunServiceDeps) {
 			await fail(id, `The run could not be queued: ${(err as Error).message}`, caseId, row.itemId);
 			throw err;
 		}
-		return (await runs.findById(id))!;
+		return accepted;
 	}
 
 	async function fail(runId: number, reason: string, caseId: number, itemId: number): Promise<void> {
