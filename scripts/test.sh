@@ -39,12 +39,15 @@ stage "build" npx vite build --logLevel error
 stage "integration" npx vitest run --project integration --reporter=default --reporter=json --outputFile.json="$ARTIFACTS/integration.json"
 
 export E2E_DATABASE_NAME=stillpoint_e2e
+# The e2e app's own database, queue keys, storage and mailbox (as in playwright.config.ts), emptied,
+# then the demo with its photo, so the workbench tests open the same item a demo user would.
 prepare_e2e() {
 	bash scripts/services.sh database "$E2E_DATABASE_NAME" --fresh &&
+		{ redis-cli -p "$REDIS_PORT" --scan --pattern 'stillpoint_e2e:*' | xargs -r redis-cli -p "$REDIS_PORT" del >/dev/null; } &&
+		rm -rf .data/e2e-storage .data/e2e-mailbox &&
 		DATABASE_NAME="$E2E_DATABASE_NAME" npx tsx scripts/migrate.ts latest &&
-		DATABASE_NAME="$E2E_DATABASE_NAME" npx tsx scripts/seed.ts >/dev/null &&
-		redis-cli -p "$REDIS_PORT" --scan --pattern 'stillpoint_e2e:*' | xargs -r redis-cli -p "$REDIS_PORT" del >/dev/null &&
-		rm -rf .data/e2e-storage .data/e2e-mailbox
+		DATABASE_NAME="$E2E_DATABASE_NAME" STORAGE_DIR=.data/e2e-storage QUEUE_PREFIX=stillpoint_e2e \
+			npx tsx scripts/seed.ts --with-photo >/dev/null
 }
 stage "end-to-end setup" prepare_e2e
 stage "end-to-end" npx playwright test

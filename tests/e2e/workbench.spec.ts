@@ -136,12 +136,16 @@ test('a bad settings value is refused with the field named, and nothing is queue
 	await cases.locator('tr', { hasText: 'QCEU-2026-0142' }).getByRole('link').click();
 	await waitForHydration(page);
 	const firstItem = page.getByRole('table', { name: 'Originals' }).locator('tbody tr a').first();
-	test.skip((await firstItem.count()) === 0, 'the demo case has no original yet');
+	// The e2e seed registers the demo photo in this case (scripts/test.sh seeds --with-photo).
+	await expect(firstItem).toBeVisible();
 	await firstItem.click();
 	await waitForHydration(page);
+	const runRows = page.locator('table[aria-label="Run history"] tbody tr');
+	const runsBefore = await runRows.count();
 
 	await page.getByLabel('Method').selectOption('rltv');
 	await page.getByLabel('TV strength').fill('0.5');
 	await page.getByRole('button', { name: 'Queue full resolution' }).click();
 	await expect(page.getByText('TV strength must be below 0.25')).toBeVisible();
+	await expect(runRows).toHaveCount(runsBefore);
 });
