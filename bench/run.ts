@@ -4,12 +4,14 @@
  * per target of issue 3 and are written to bench/out/ (git-ignored).
  *   --quick      skip the 12 MP and 24 MP measurements (RL speed then runs at 1 MP, no scikit-image)
  *   --no-python  skip the scikit-image / scipy reference columns
+ * The blur-estimation accuracy tables (issue 7) follow; `npx tsx bench/estimation-run.ts` runs them alone.
  */
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
 import { ENGINE_VERSION, setDefaultFftBackend } from '../src/lib/imaging';
 import { createNodeFftBackend } from '../src/lib/imaging/node';
+import { runEstimationBench } from './estimation';
 import { pythonReference } from './python';
 import { runQuality } from './quality';
 import { qualityReport, speedReport } from './report';
@@ -47,6 +49,9 @@ if (quick) {
 	speed.memory24mp = memory24mp();
 }
 
+log('estimation: motion, defocus, noise and 12 MP timing …');
+const estimation = await runEstimationBench({ perBand: quick ? 4 : 12 });
+
 const q = qualityReport(quality);
 const s = speedReport(speed);
 const text = [
@@ -57,7 +62,9 @@ const text = [
 	s.text,
 	'',
 	'Verdicts',
-	...[...q.verdicts, ...s.verdicts].map((v) => `  ${v}`)
+	...[...q.verdicts, ...s.verdicts].map((v) => `  ${v}`),
+	'',
+	estimation
 ].join('\n');
 process.stdout.write(text + '\n');
 writeFileSync(join(outDir, 'report.txt'), text + '\n');
