@@ -1,23 +1,21 @@
 /**
  * Seeded pseudo-random numbers so every benchmark image, kernel and noise field is the same
- * on every run and machine. mulberry32 (Tommy Ettinger, public domain; from memory): 32-bit
- * state, period 2^32, plenty for a few million draws per image.
+ * on every run and machine: the engine's own seeded generator (src/lib/imaging/random.ts), with
+ * ranges and paired normal draws on top.
  */
+import { seededRandom } from '../src/lib/imaging/random';
+
 export class Prng {
-	private state: number;
+	private readonly uniform: () => number;
 	private spare: number | null = null;
 
 	constructor(seed: number) {
-		this.state = seed >>> 0;
+		this.uniform = seededRandom(seed);
 	}
 
 	/** Uniform in [0, 1). */
 	next(): number {
-		this.state = (this.state + 0x6d2b79f5) >>> 0;
-		let t = this.state;
-		t = Math.imul(t ^ (t >>> 15), t | 1);
-		t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-		return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+		return this.uniform();
 	}
 
 	/** Uniform in [lo, hi). */
