@@ -2,7 +2,7 @@ export { estimateBlur, type BlurEstimate, type BlurProposal, type BlurVerdict, t
 export { estimateStraightMotion, type MotionEstimate, type MotionOptions } from './motion';
 export { estimateDefocus, type DefocusEstimate, type DefocusOptions } from './defocus';
 export { estimateGaussianFalloff, type GaussianEstimate, GAUSSIAN_CONFIDENCE_CAP } from './gaussian';
-export { estimateNoise, estimateNoiseMad, type NoiseEstimate } from './noise';
+export { estimateNoise, estimateNoiseEdgeMasked, estimateNoiseMad, type NoiseEstimate } from './noise';
 export { averagedPowerSpectrum, MIN_TILE_SIZE, type PowerSpectrum, type SpectrumOptions } from './spectrum';
 export { analysisBand, type AnalysisBand, type AnalysisBandOptions } from './band';
 export { besselJ1, besselJ1Zeros, jinc } from './bessel';
