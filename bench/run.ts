@@ -8,6 +8,7 @@
  */
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
+import { availableParallelism, loadavg } from 'node:os';
 import { parseArgs } from 'node:util';
 import { ENGINE_VERSION, setDefaultFftBackend } from '../src/lib/imaging';
 import { createNodeFftBackend } from '../src/lib/imaging/node';
@@ -37,6 +38,8 @@ const quality = await runQuality(outDir, withPython, log);
 if (!withPython) quality.skimageNote = reference.missing;
 
 const speed: SpeedSection = {};
+const loadNow = () => loadavg().map((l) => l.toFixed(2)).join(' ');
+const loadBefore = loadNow();
 speed.previewMs = previewMs();
 if (quick) {
 	speed.rl = rlSpeed(outDir, 1000, 1000, withPython, false, log);
@@ -48,6 +51,8 @@ if (quick) {
 	log('speed: peak memory, 24 MP RGB Wiener in a fresh process …');
 	speed.memory24mp = memory24mp();
 }
+
+speed.context = `${availableParallelism()} cores, engine on ${fast.backend.parallel?.threads ?? 1} threads; load average ${loadBefore} before the speed section, ${loadNow()} after`;
 
 log('estimation: motion, defocus, noise and 12 MP timing …');
 const estimation = await runEstimationBench({ perBand: quick ? 4 : 12 });

@@ -1,7 +1,7 @@
 import { clippedFraction } from '../analysis/clipping';
 import { estimateNoiseSigma } from '../analysis/noise';
 import { recoverability, type Recoverability } from '../analysis/recoverability';
-import { linearToSrgb, toLinear } from '../colour';
+import { linearToSrgb } from '../colour';
 import type { FftBackend } from '../fft/backend';
 import { defaultFftBackend } from '../fft/default-backend';
 import { buildKernel } from '../kernels/build';
@@ -9,6 +9,7 @@ import { kernelSpecSchema, type KernelSpec } from '../kernels/spec';
 import { createPlane, planeValues, type Plane, type RasterImage } from '../types';
 import { ENGINE_VERSION } from '../version';
 import { chooseAutoSettings, type AutoSettings } from './auto';
+import { imageToLinear } from './linear-light';
 import { richardsonLucy } from './richardson-lucy';
 import { Workspace } from './workspace';
 import { wienerDeconvolve, wienerPadding } from './wiener';
@@ -157,7 +158,7 @@ export function restore(img: RasterImage, kernel: KernelSpec, options: RestoreOp
 	validateOptions(options);
 	const psf = buildKernel(parsed.data);
 	const linearLight = options.linearLight ?? true;
-	const working = linearLight ? toLinear(img) : img;
+	const working = linearLight ? imageToLinear(img) : img;
 	const sigmas = working.planes.map((p) => estimateNoiseSigma(p));
 	const noiseSigma = sigmas.reduce((a, b) => a + b, 0) / sigmas.length;
 	const fft = hooks.fft ?? defaultFftBackend();
