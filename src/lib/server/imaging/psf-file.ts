@@ -2,14 +2,25 @@ import { createHash } from 'node:crypto';
 import ndarray from 'ndarray';
 import { kernelFromImage, kernelSpecSchema, type KernelSpec } from '../../imaging';
 import { decodeImage, type DecodeInfo } from './decode';
-import { ImageInputError } from './errors';
+import { ImageInputError, type ImageInputReason } from './errors';
 
-/** Thrown when a PSF file is readable but not a usable kernel; the message fits on one line. */
+/**
+ * Thrown when a PSF file is not a usable kernel; the message fits on one line. `reason` says why
+ * (the image could not be read, or it was read but is not a kernel) so a server maps it to a status.
+ */
 export class PsfError extends Error {
-	constructor(message: string) {
+	constructor(
+		message: string,
+		readonly reason: ImageInputReason | 'not-a-kernel' = 'not-a-kernel'
+	) {
 		super(message);
 		this.name = 'PsfError';
 	}
+}
+
+export interface ReadPsfOptions {
+	/** Cap on an image PSF's width × height. @default DEFAULT_MAX_PIXELS of decodeImage */
+	maxPixels?: number;
 }
 
 /** Where the kernel of a run came from; it goes into the run record beside the spec. */
@@ -30,7 +41,7 @@ export type PsfSource =
  * must decode as an image. Image values are used as stored (no gamma decoding) and normalised
  * by their sum by the engine's kernelFromImage.
  */
-export async function readPsf(bytes: Uint8Array, file: string): Promise<{ spec: KernelSpec; source: PsfSource }> {
+export async function readPsf(bytes: Uint8Array, file: string, options: ReadPsfOptions = {}): Promise<{ spec: KernelSpec; source: PsfSource }> {
 	const sha256 = createHash('sha256').update(bytes).digest('hex');
 	if (looksLikeJson(bytes)) {
 		let doc: unknown;
@@ -47,9 +58,9 @@ export async function readPsf(bytes: Uint8Array, file: string): Promise<{ spec: 
 	}
 	let decoded;
 	try {
-		decoded = await decodeImage(bytes);
+		decoded = await decodeImage(bytes, { maxPixels: options.maxPixels });
 	} catch (e) {
-		if (e instanceof ImageInputError) throw new PsfError(`PSF file ${file}: ${e.message}`);
+		if (e instanceof ImageInputError) throw new PsfError(`PSF file ${file}: ${e.message}`, e.reason);
 		throw e;
 	}
 	const { image, info } = decoded;
