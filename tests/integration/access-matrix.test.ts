@@ -33,7 +33,7 @@ const CALLERS: Caller[] = ['anonymous', 'admin', 'technician', 'supervisor', 'cl
  * `signin` → the sign-in page with the way back, `home` → '/', `case` → the new case's page,
  * `away` → anywhere (the sign-out redirect).
  */
-type Expected = 200 | 201 | 202 | 400 | 401 | 403 | 404 | 409 | 'signin' | 'home' | 'case' | 'away';
+type Expected = 200 | 201 | 202 | 400 | 401 | 403 | 404 | 409 | 422 | 'signin' | 'home' | 'case' | 'away';
 /** In the order of CALLERS: anonymous, admin, technician, supervisor, client. */
 type Row5 = [Expected, Expected, Expected, Expected, Expected];
 
@@ -171,6 +171,10 @@ const TABLE: Row[] = [
 	{ route: '/api/items/[id=id]', method: 'GET', path: (f) => `/api/items/${f.hiddenItem}`, expect: [401, 200, 200, 200, 404] },
 	{ route: '/api/items/[id=id]/preview', method: 'GET', path: (f) => `/api/items/${f.hiddenItem}/preview`, expect: [401, 200, 200, 200, 404] },
 	{ route: '/api/items/[id=id]/original', method: 'GET', path: (f) => `/api/items/${f.hiddenItem}/original`, expect: [401, 200, 200, 200, 404] },
+	{ route: '/api/items/[id=id]/tiles', method: 'GET', path: (f) => `/api/items/${f.hiddenItem}/tiles`, expect: [401, 200, 200, 200, 404],
+		note: 'issue 5: the zoom view reads what the preview shows, so the preview\'s audience' },
+	{ route: '/api/items/[id=id]/tiles/[level]/[column]/[row]', method: 'GET', path: (f) => `/api/items/${f.hiddenItem}/tiles/0/0/0`, expect: [401, 200, 200, 200, 404] },
+	{ route: '/api/items/[id=id]/region', method: 'GET', path: (f) => `/api/items/${f.hiddenItem}/region?x=0&y=0&width=4&height=4`, expect: [401, 200, 200, 200, 404] },
 
 	// ── runs (issue 4 §6: technicians and admins create, cancel and replay; supervisors read;
 	//    clients see nothing until a result is released to them) ──
@@ -195,6 +199,12 @@ const TABLE: Row[] = [
 	// ── blur estimation (issue 7 §6: staff ask for a proposed kernel) ──
 	{ route: '/api/items/[id=id]/estimate', method: 'POST', path: (f) => `/api/items/${f.hiddenItem}/estimate`, expect: [401, 200, 200, 200, 403],
 		request: () => ({ json: {} }), note: 'a 16 × 16 original: the answer is "no confident blur", still a 200' },
+	{ route: '/api/items/[id=id]/streak', method: 'POST', path: (f) => `/api/items/${f.hiddenItem}/streak`, expect: [401, 422, 422, 422, 403],
+		request: () => ({ json: { region: { x: 0, y: 0, width: 16, height: 16 } } }),
+		note: 'issue 5: a one-colour 16 × 16 original holds no streak, so staff get past the guard to a 422' },
+	{ route: '/api/kernels/from-image', method: 'POST', path: () => '/api/kernels/from-image', expect: [401, 200, 200, 200, 403],
+		request: async (c) => ({ multipart: await pngFor(c, `matrix-psf-${c}.png`) }),
+		note: 'issue 5: an uploaded PSF image becomes an image kernel (a flat 16 × 16 square is a valid box PSF)' },
 
 	// ── custody (issue 4 §4: the lab's record; clients read released reports, not the ledger) ──
 	{ route: '/api/items/[id=id]/custody', method: 'GET', path: (f) => `/api/items/${f.hiddenItem}/custody`, expect: [401, 200, 200, 200, 403] },

@@ -39,10 +39,18 @@ export const ROUTE_ACCESS: Record<string, Partial<Record<Method, Audience>>> = {
 	'/api/items/[id=id]': { GET: everyone },
 	'/api/items/[id=id]/preview': { GET: everyone },
 	'/api/items/[id=id]/original': { GET: everyone },
+	// The zoom view's tiles and full-resolution regions: display values, the preview's audience.
+	'/api/items/[id=id]/tiles': { GET: everyone },
+	'/api/items/[id=id]/tiles/[level]/[column]/[row]': { GET: everyone },
+	'/api/items/[id=id]/region': { GET: everyone },
 	// Runs: staff read; technicians and admins request, cancel and replay. Clients never reach a
 	// run: a released result comes to them through /api/portal/items/… (issue 6 §5).
 	'/api/items/[id=id]/runs': { GET: staff, POST: editors },
 	'/api/items/[id=id]/estimate': { POST: ['admin', 'technician', 'supervisor'] },
+	// Kernels from pictures (issue 5): a point light's streak in the original, or an uploaded PSF
+	// image; computed on request and not stored, so the staff who may ask for an estimate.
+	'/api/items/[id=id]/streak': { POST: staff },
+	'/api/kernels/from-image': { POST: staff },
 	'/api/runs/[id=id]': { GET: staff },
 	'/api/runs/[id=id]/result': { GET: staff },
 	'/api/runs/[id=id]/preview': { GET: staff },

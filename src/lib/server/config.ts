@@ -20,6 +20,11 @@ export const configSchema = z.object({
 	REDIS_URL: z.url().default('redis://127.0.0.1:6391/0'),
 	QUEUE_PREFIX: z.string().min(1).default('stillpoint'),
 	STORAGE_DIR: z.string().default('.data/storage'),
+	/**
+	 * The zoom view's tile pyramids: derivatives keyed by the original's SHA-256, never evidence,
+	 * safe to delete (they are rebuilt on demand). Beside the local storage folder by default.
+	 */
+	TILE_CACHE_DIR: z.string().default('.data/tiles'),
 	/** Where originals and derivatives live: this disk, or an S3-compatible bucket for several workers. */
 	STORAGE_DRIVER: z.enum(['local', 's3']).default('local'),
 	/** A non-AWS endpoint (MinIO, a fake for tests); path-style addressing is used with it. */

@@ -7,6 +7,7 @@ import { receiveFile } from '$lib/server/intake/multipart';
 import { intakeService } from '$lib/server/services/intake.service';
 import { itemJson, itemService } from '$lib/server/services/item.service';
 import { storage } from '$lib/server/storage';
+import { warmTiles } from '$lib/server/tiles';
 import type { RequestHandler } from './$types';
 
 export const GET: RequestHandler = ({ locals, params }) =>
@@ -23,6 +24,8 @@ export const POST: RequestHandler = ({ locals, params, request }) =>
 		const { item, duplicate } = await intake.ingest(locals.user!, Number(params.id), () =>
 			receiveFile(request, { tmpDir: join(c.STORAGE_DIR, 'tmp'), maxBytes: c.UPLOAD_MAX_BYTES })
 		);
+		// The zoom view's pyramid, started now so the first zoom is quick; never fails the upload.
+		if (!duplicate) warmTiles({ sha256: item.sha256, storageKey: item.storageKey });
 		return json(
 			{ ...itemJson(item, { withExif: true }), duplicate },
 			{ status: duplicate ? 200 : 201, headers: { location: `/api/items/${item.id}` } }
