@@ -52,7 +52,7 @@ test('upload, queue a straight-motion run, follow it and see the result', async 
 	await originals.getByRole('link', { name }).click();
 	await expect(page.getByRole('heading', { level: 1, name })).toBeVisible();
 	await waitForHydration(page);
-	await expect(page.getByTestId('original-preview')).toHaveJSProperty('complete', true);
+	await expect(page.getByTestId('zoom-view').getByText('Preparing tiles…')).toBeHidden({ timeout: 20_000 });
 	await expect(page.getByTestId('restoration-caution')).toContainText('aid to interpretation');
 
 	await page.getByLabel('Kernel', { exact: true }).selectOption('line');
@@ -69,6 +69,8 @@ test('upload, queue a straight-motion run, follow it and see the result', async 
 	// Region preview in the Web Worker: drag a box over the sign, then change a setting and see it refresh.
 	const picker = page.getByTestId('region-picker').locator('img');
 	await expect(picker).toHaveJSProperty('complete', true);
+	// The mouse works in viewport coordinates: bring the picker (below the zoom view) on screen first.
+	await picker.scrollIntoViewIfNeeded();
 	const box = (await picker.boundingBox())!;
 	await page.mouse.move(box.x + box.width * 0.15, box.y + box.height * 0.2);
 	await page.mouse.down();
@@ -104,6 +106,7 @@ test('upload, queue a straight-motion run, follow it and see the result', async 
 		Promise.all([page.getByTestId('original-preview'), result].map((image) => image.evaluate((img: HTMLElement) => img.style.transform)));
 	const panes = page.getByTestId('compare-pane');
 	await expect(panes).toHaveCount(2);
+	await panes.first().scrollIntoViewIfNeeded();
 	const paneBox = (await panes.first().boundingBox())!;
 	await page.mouse.move(paneBox.x + paneBox.width / 2, paneBox.y + paneBox.height / 2);
 	await page.mouse.wheel(0, -200);
@@ -117,7 +120,7 @@ test('upload, queue a straight-motion run, follow it and see the result', async 
 	await page.getByRole('button', { name: 'Swipe' }).click();
 	await expect(page.getByRole('slider')).toBeVisible();
 	await page.getByRole('button', { name: 'Side by side' }).click();
-	await page.getByRole('button', { name: 'Fit' }).click();
+	await page.getByRole('toolbar', { name: 'Comparison' }).getByRole('button', { name: 'Fit' }).click();
 
 	mkdirSync('tests/artifacts', { recursive: true });
 	for (const [width, height] of [
@@ -125,7 +128,7 @@ test('upload, queue a straight-motion run, follow it and see the result', async 
 		[1920, 1080]
 	] as const) {
 		await page.setViewportSize({ width, height });
-		await page.screenshot({ path: `tests/artifacts/item-workbench-${width}x${height}.png`, fullPage: true });
+		await page.screenshot({ path: `tests/artifacts/upload-and-run-${width}x${height}.png`, fullPage: true });
 	}
 });
 
