@@ -38,6 +38,9 @@ stamp="node_modules/.stillpoint-lock.sha256"
 want="$(sha256sum package-lock.json | cut -d' ' -f1)"
 if [ ! -f "$stamp" ] || [ "$(cat "$stamp")" != "$want" ]; then
 	log "installing npm dependencies (npm ci)"
+	# The font packages' install hook would start a usage-reporting process in CI; a lab's build
+	# phones nobody (the switch is the reporter's own documented opt-out).
+	export IBM_TELEMETRY_DISABLED=true
 	npm ci --no-audit --no-fund --loglevel=error
 	echo "$want" >"$stamp"
 fi
