@@ -1,6 +1,6 @@
 /**
  * Which pixels the spectrum panel analyses: the region the technician picked, or else a square from
- * the middle of the original — always at full resolution (the region route), because a downscaled
+ * the middle of what the zoom view shows (the whole original before the view has a size) — always at full resolution (the region route), because a downscaled
  * preview would move the kernel's zeros by the scale factor and fold aliasing into the spectrum.
  */
 import { DEFAULT_SPECTRUM_SIZE } from './spectrum-size';
@@ -16,16 +16,23 @@ export interface SpectrumRect {
 export function spectrumSource(
 	item: { id: number; width: number; height: number },
 	region: SpectrumRect | null,
+	visible: SpectrumRect | null = null,
 	side = DEFAULT_SPECTRUM_SIZE
 ): { src: string; rect: SpectrumRect } | null {
-	const rect = region ?? centredSquare(item, side);
+	const rect = region ?? centredSquare(visible ?? { x: 0, y: 0, width: item.width, height: item.height }, item, side);
 	if (!rect) return null;
 	const query = new URLSearchParams({ x: String(rect.x), y: String(rect.y), width: String(rect.width), height: String(rect.height) });
 	return { src: `/api/items/${item.id}/region?${query}`, rect };
 }
 
-function centredSquare(image: { width: number; height: number }, side: number): SpectrumRect | null {
-	const n = Math.min(side, image.width, image.height);
+/** Fewest pixels a useful spectrum needs: zoomed far in, the square reaches beyond the screen to this. */
+const MIN_SIDE = 128;
+
+function centredSquare(area: SpectrumRect, image: { width: number; height: number }, side: number): SpectrumRect | null {
+	const n = Math.min(side, image.width, image.height, Math.max(MIN_SIDE, Math.min(area.width, area.height)));
 	if (n < 1) return null;
-	return { x: Math.floor((image.width - n) / 2), y: Math.floor((image.height - n) / 2), width: n, height: n };
+	const clamp = (start: number, length: number) => Math.min(Math.max(0, start), length - n);
+	const x = clamp(area.x + Math.floor((area.width - n) / 2), image.width);
+	const y = clamp(area.y + Math.floor((area.height - n) / 2), image.height);
+	return { x, y, width: n, height: n };
 }

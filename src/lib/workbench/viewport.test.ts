@@ -15,6 +15,7 @@ import {
 	pixelAt,
 	screenToImage,
 	tileOfPixel,
+	visibleRect,
 	visibleTiles,
 	zoomAbout,
 	zoomLimits,
@@ -153,4 +154,18 @@ describe('visible tiles', () => {
 
 test('the pixel under the cursor is found in its full-resolution tile', () => {
 	expect(tileOfPixel({ x: 600, y: 255 }, 256)).toEqual({ column: 2, row: 0, x: 88, y: 255 });
+});
+
+describe('visibleRect', () => {
+	const image = { width: 960, height: 640 };
+	test('the whole image when it fits inside the box', () => {
+		expect(visibleRect({ zoom: 0.5, x: 20, y: 10 }, image, { width: 600, height: 400 })).toEqual({ x: 0, y: 0, width: 960, height: 640 });
+	});
+	test('at 200 % the box shows half its size in pixels, widened to whole pixels', () => {
+		// screen 0..500 → image (0 − (−301))/2 = 150.5 … (500 + 301)/2 = 400.5 → pixels 150…400.
+		expect(visibleRect({ zoom: 2, x: -301, y: -100 }, image, { width: 500, height: 300 })).toEqual({ x: 150, y: 50, width: 251, height: 150 });
+	});
+	test('null when the image is panned out of the box', () => {
+		expect(visibleRect({ zoom: 1, x: 2000, y: 0 }, image, { width: 500, height: 300 })).toBeNull();
+	});
 });

@@ -90,6 +90,28 @@ export function pixelAt(t: ViewTransform, p: Point, image: Size): Point | null {
 	return x >= 0 && y >= 0 && x < image.width && y < image.height ? { x, y } : null;
 }
 
+/** A rectangle of whole original pixels. */
+export interface PixelBox {
+	x: number;
+	y: number;
+	width: number;
+	height: number;
+}
+
+/**
+ * The original pixels at least partly on screen: the view box mapped back to the image and
+ * clipped to it, widened to whole pixels. Null when no pixel of the image is in view.
+ */
+export function visibleRect(t: ViewTransform, image: Size, view: Size): PixelBox | null {
+	const a = screenToImage(t, { x: 0, y: 0 });
+	const b = screenToImage(t, { x: view.width, y: view.height });
+	const x0 = Math.max(0, Math.floor(a.x));
+	const y0 = Math.max(0, Math.floor(a.y));
+	const x1 = Math.min(image.width, Math.ceil(b.x));
+	const y1 = Math.min(image.height, Math.ceil(b.y));
+	return x1 > x0 && y1 > y0 ? { x: x0, y: y0, width: x1 - x0, height: y1 - y0 } : null;
+}
+
 /**
  * Set a new zoom (clamped) while the image point under `anchor` (screen) stays under it:
  * from anchor = p·z + t and anchor = p·z' + t' follows t' = anchor − (anchor − t)·z'/z.
