@@ -4,7 +4,9 @@ import { randomUUID } from 'node:crypto';
 import { decideAccess } from '$lib/server/access';
 import { authHandle } from '$lib/server/auth';
 import { closeDb, db } from '$lib/server/db';
-import { closeRedis } from '$lib/server/redis';
+import { config } from '$lib/server/config';
+import { closeRedis, redis } from '$lib/server/redis';
+import { sessionRevocation } from '$lib/server/session-revocation';
 import { apiTokenService } from '$lib/server/services/api-token.service';
 import { userService } from '$lib/server/services/user.service';
 
@@ -36,8 +38,13 @@ const userHandle: Handle = async ({ event, resolve }) => {
 		if (!event.locals.user) return json({ error: 'Unknown or revoked API token' }, { status: 401 });
 		return resolve(event);
 	}
-	const session = (await event.locals.auth()) as { uid?: number } | null;
-	event.locals.user = typeof session?.uid === 'number' ? await userService(db()).sessionUser(session.uid) : null;
+	const session = (await event.locals.auth()) as { uid?: number; sid?: string } | null;
+	// A session without an id predates sign-out revocation, or was not issued by this app: refused.
+	const live =
+		typeof session?.uid === 'number' &&
+		typeof session.sid === 'string' &&
+		!(await sessionRevocation(redis(), config().QUEUE_PREFIX).isRevoked(session.sid));
+	event.locals.user = live ? await userService(db()).sessionUser(session.uid!) : null;
 	return resolve(event);
 };
 

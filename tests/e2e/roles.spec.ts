@@ -87,9 +87,14 @@ test('a wrong password gets the one generic message', async ({ page }) => {
 	await expect(page.getByRole('alert')).toContainText('E-mail or password not accepted');
 });
 
-test('signing out returns to the sign-in page', async ({ page }) => {
+test('signing out returns to the sign-in page, and a copy of the old cookie no longer works', async ({ page, context }) => {
 	await signIn(page, 'technician');
+	const copied = await context.cookies();
+	expect((await page.request.get('/api/cases')).status()).toBe(200);
 	await page.getByRole('button', { name: 'Sign out' }).click();
 	await page.goto('/');
 	await expect(page).toHaveURL(/\/signin/);
+	// Someone who copied the session cookie before sign-out replays it.
+	await context.addCookies(copied);
+	expect((await page.request.get('/api/cases')).status()).toBe(401);
 });

@@ -20,7 +20,7 @@ import { join, relative, sep } from 'node:path';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import type { Role } from '../../src/lib/roles';
 import { ROUTE_ACCESS } from '../../src/lib/server/access';
-import { signIn } from './support/auth';
+import { demoUser, signIn, signInAs } from './support/auth';
 import { closeTestDb, countRows, testDb } from './support/db';
 import { HttpClient, readJson, type RequestOptions } from './support/http';
 import sharp from 'sharp';
@@ -63,6 +63,8 @@ interface Row {
 	effect?: (caller: Caller, allowed: boolean, f: Fixtures) => Promise<void>;
 	/** Why a row differs from the plain rule, when it does. */
 	note?: string;
+	/** Send with a session of its own (signed in for this row), so the row may end it. */
+	ownSession?: true;
 }
 
 const TOKEN = (caller: Caller) => caller.toUpperCase();
@@ -111,7 +113,8 @@ const TABLE: Row[] = [
 		request: () => ({ form: { providerId: 'credentials', email: '', password: '', redirectTo: '/' } }),
 		note: 'empty fields: 400 for a visitor; a signed-in user is sent home first' },
 	{ route: '/signout', method: 'POST', path: () => '/signout',     expect: ['away', 'away', 'away', 'away', 'away'],
-		request: () => ({ form: {}, keepJar: true }) },
+		request: () => ({ form: {}, keepJar: true }), ownSession: true,
+		note: 'the jar keeps the old cookie, as a copy taken before sign-out would; it must no longer work (see the row effect)' },
 	{ route: '/cases', method: 'GET', path: () => '/cases',          expect: ['signin', 200, 200, 200, 200] },
 	{ route: '/cases/new', method: 'GET', path: () => '/cases/new',  expect: ['signin', 200, 200, 403, 403] },
 	{ route: '/cases/new', method: 'POST', path: () => '/cases/new', expect: ['signin', 'case', 'case', 403, 403],
@@ -338,9 +341,12 @@ describe.each(TABLE.map((row) => [`${row.method} ${row.route}${row.note ? ` (${r
 				const expected = row.expect[i];
 				const path = row.path(fixtures);
 				const options = { ...((await row.request?.(caller, fixtures)) ?? {}), keepJar: true };
-				const response = await sessions[caller].request(row.method, path, options);
+				const session = row.ownSession ? (caller === 'anonymous' ? new HttpClient() : await signInAs(demoUser(caller).email, demoUser(caller).password)) : sessions[caller];
+				const response = await session.request(row.method, path, options);
 				await assertAnswer(response, expected, path);
 				await row.effect?.(caller, isAllowed(expected), fixtures);
+				// A signed-out session's cookie, replayed, is refused (src/lib/server/session-revocation.ts).
+				if (row.route === '/signout') expect((await session.request('GET', '/api/me')).status).toBe(401);
 			}
 		);
 	}

@@ -3,12 +3,14 @@
  * user id and role. The role is re-read from the database on every request (hooks.server.ts),
  * so a role change or a disabled account takes effect at once.
  */
+import { randomUUID } from 'node:crypto';
 import { SvelteKitAuth } from '@auth/sveltekit';
 import Credentials from '@auth/sveltekit/providers/credentials';
 import { config } from './config';
 import { db } from './db';
 import { redis } from './redis';
 import { userService } from './services/user.service';
+import { SESSION_MAX_AGE_SECONDS, sessionRevocation } from './session-revocation';
 import { signInLimiter } from './sign-in-limiter';
 import { signInSchema } from '../schemas/user';
 
@@ -28,7 +30,7 @@ export const { handle: authHandle, signIn, signOut } = SvelteKitAuth(async (even
 				if (err.name !== 'CredentialsSignin') console.error('[auth]', err);
 			}
 		},
-		session: { strategy: 'jwt', maxAge: 12 * 60 * 60 },
+		session: { strategy: 'jwt', maxAge: SESSION_MAX_AGE_SECONDS },
 		pages: { signIn: '/signin', error: '/signin' },
 		providers: [
 			Credentials({
@@ -43,11 +45,21 @@ export const { handle: authHandle, signIn, signOut } = SvelteKitAuth(async (even
 		],
 		callbacks: {
 			jwt({ token, user }) {
-				if (user?.id) token.uid = Number(user.id);
+				if (user?.id) {
+					token.uid = Number(user.id);
+					token.sid = randomUUID();
+				}
 				return token;
 			},
 			session({ session, token }) {
-				return { ...session, uid: token.uid };
+				return { ...session, uid: token.uid, sid: token.sid };
+			}
+		},
+		events: {
+			// A copy of the cookie taken before sign-out must not sign anyone in afterwards.
+			async signOut(message) {
+				const sid = 'token' in message ? message.token?.sid : undefined;
+				if (typeof sid === 'string') await sessionRevocation(redis(), c.QUEUE_PREFIX).revoke(sid);
 			}
 		}
 	};
