@@ -3,7 +3,8 @@
  * benchmark's own renderers (bench/scenes.ts) and a dead-leaves texture; blur is the engine's
  * kernel raster (the spec a proposal would be replayed with) applied by the benchmark's plain
  * spatial 'valid' convolution in double precision (bench/degrade.ts), so no circular boundary
- * enters; seeded Gaussian noise is added in linear light, where the estimator works.
+ * enters; seeded Gaussian noise is added in linear light, where the estimator works. Sharp
+ * (unblurred) renderings of every scene check that no blur is proposed where there is none.
  */
 import { buildKernel, createPlane, type KernelSpec, type Plane } from '../src/lib/imaging';
 import { estimateBlur } from '../src/lib/imaging/estimation';
@@ -17,11 +18,17 @@ const SIZE = 512;
 
 /** A sharp linear-light scene, SIZE + margin square, by index (cycles through the scene set). */
 async function scene(index: number, side: number): Promise<{ name: string; values: Float64Array }> {
-	const kinds = ['dead-leaves', 'lichen-stone', 'street-sign', 'parcel-label'];
-	const name = kinds[index % kinds.length];
+	return namedScene(SCENE_KINDS[index % SCENE_KINDS.length], side, index);
+}
+
+const SCENE_KINDS = ['dead-leaves', 'lichen-stone', 'street-sign', 'parcel-label'];
+
+/** A sharp linear-light scene by name: dead leaves, the lichen texture, or one of bench/scenes.ts. */
+async function namedScene(name: string, side: number, index: number): Promise<{ name: string; values: Float64Array }> {
 	if (name === 'dead-leaves') return { name, values: Float64Array.from(deadLeaves(side, side, 100 + index).data) };
 	const img = name === 'lichen-stone' ? lichenTexture(side, side, 100 + index) : await SCENES.find((s) => s.name === name)!.render(side);
-	const grey = img.planes[1];
+	// The green plane of colour scenes (closest to luminance), the only plane of grey ones.
+	const grey = img.planes[1] ?? img.planes[0];
 	return { name, values: Float64Array.from(grey, srgbToLinear) };
 }
 
@@ -37,10 +44,10 @@ function synthKernel(spec: KernelSpec): SynthKernel {
 	return { size, data, label: JSON.stringify(spec) };
 }
 
-async function degraded(spec: KernelSpec | null, noise: number, index: number, seed: number): Promise<{ plane: Plane; scene: string }> {
+async function degraded(spec: KernelSpec | null, noise: number, index: number, seed: number, sceneName?: string): Promise<{ plane: Plane; scene: string }> {
 	const kernel = spec ? synthKernel(spec) : null;
 	const side = SIZE + (kernel ? kernel.size - 1 : 0);
-	const { name, values } = await scene(index, side);
+	const { name, values } = sceneName ? await namedScene(sceneName, side, index) : await scene(index, side);
 	const blurred = kernel ? convolveValid(values, side, side, kernel) : values;
 	const rng = new Prng(seed);
 	const plane = createPlane(SIZE, SIZE, Float32Array.from(blurred, (v) => v + noise * rng.normal()));
@@ -110,6 +117,30 @@ async function defocusErrors(): Promise<{ radius: number; found: number | null }
 	return out;
 }
 
+interface SharpResult {
+	scene: string;
+	noise: number;
+	verdict: string;
+	/** The proposal made (a false positive), or the strongest weak candidate named in the notes. */
+	detail: string;
+}
+
+/** Every scene unblurred, at noise σ 0.2 % and 1 % (another seed each): every answer should be 'no-confident-blur' (issue 7). */
+async function sharpRows(): Promise<SharpResult[]> {
+	const names = ['dead-leaves', ...SCENES.map((s) => s.name)];
+	const rows: SharpResult[] = [];
+	for (const [k, name] of names.entries()) {
+		for (const [j, noise] of [0.002, 0.01].entries()) {
+			const { plane } = await degraded(null, noise, k + 4 * j, 5000 + 10 * k + j, name);
+			const estimate = estimateBlur(plane);
+			const best = estimate.proposals[0];
+			const detail = best ? `${JSON.stringify(best.kernel)} at ${best.confidence}` : estimate.notes.filter((n) => n.startsWith('Weak') || n.startsWith('Fall-off')).join(' ') || '—';
+			rows.push({ scene: name, noise, verdict: estimate.verdict, detail });
+		}
+	}
+	return rows;
+}
+
 /** Noise σ 0.2–3 % on blurred textured images (the estimator's use) and on sharp ones (harder). */
 async function noiseRows(): Promise<{ sigma: number; blurred: number[]; sharp: number[] }[]> {
 	const rows = [];
@@ -143,40 +174,63 @@ async function timing12mp(): Promise<{ wall: number; cpu: number }> {
 	return { wall: (performance.now() - started) / 1000, cpu: (used.user + used.system) / 1e6 };
 }
 
-/** Run the whole estimation benchmark and return its report as text. */
-export async function runEstimationBench(options: { perBand?: number } = {}): Promise<string> {
+/** Parts of the estimation benchmark, in report order. */
+export const ESTIMATION_PARTS = ['motion', 'defocus', 'sharp', 'noise', 'timing'] as const;
+export type EstimationPart = (typeof ESTIMATION_PARTS)[number];
+
+/** Run the estimation benchmark (all parts unless `parts` names some) and return its report as text. */
+export async function runEstimationBench(options: { perBand?: number; parts?: readonly EstimationPart[] } = {}): Promise<string> {
 	const started = performance.now();
-	const motion = await motionRows(options.perBand ?? 12);
-	const defocus = await defocusErrors();
-	const noise = await noiseRows();
-	const seconds = await timing12mp();
+	const parts = new Set(options.parts ?? ESTIMATION_PARTS);
 	const lines: string[] = ['Blur estimation (issue 7) — synthetic scenes 512×512, engine kernels, valid convolution', ''];
-	lines.push('Straight motion, all angles, noise σ ≤ 1 % (failure: error > 3 px or > 5°, or no motion proposal)');
-	lines.push('band        cases  median |ΔL| px  median |Δθ| °  failures');
-	for (const r of motion) lines.push(`${r.band.padEnd(11)} ${String(r.cases).padStart(5)}  ${fmt(r.medianLengthError).padStart(14)}  ${fmt(r.medianAngleError).padStart(13)}  ${(100 * r.failureRate).toFixed(0).padStart(7)} %`);
-	for (const r of motion) for (const f of r.failed) lines.push(`  failed: ${f}`);
-	const allL = median(motion.map((r) => r.medianLengthError));
-	const allA = median(motion.map((r) => r.medianAngleError));
-	lines.push('');
-	lines.push('Defocus, noise σ 0.2 %');
-	lines.push('radius px  found px  |ΔR| px');
-	for (const d of defocus) lines.push(`${fmt(d.radius, 1).padStart(9)}  ${d.found === null ? '    none' : fmt(d.found).padStart(8)}  ${d.found === null ? '      —' : fmt(Math.abs(d.found - d.radius)).padStart(7)}`);
-	const defocusMedian = median(defocus.map((d) => (d.found === null ? Infinity : Math.abs(d.found - d.radius))));
-	lines.push('');
-	lines.push('Noise σ = min(Immerkær, wavelet MAD), relative error (two scenes each)');
-	lines.push('true σ   blurred scenes      sharp scenes');
-	for (const r of noise) lines.push(`${(100 * r.sigma).toFixed(1).padStart(5)} %  ${r.blurred.map((e) => `${(100 * e).toFixed(0).padStart(5)} %`).join(' ')}   ${r.sharp.map((e) => `${(100 * e).toFixed(0).padStart(5)} %`).join(' ')}`);
-	const worstBlurredNoise = Math.max(...noise.flatMap((r) => r.blurred.map(Math.abs)));
-	lines.push('');
-	lines.push(`12 MP (4000×3000) estimate: ${seconds.wall.toFixed(2)} s wall, ${seconds.cpu.toFixed(2)} s CPU`);
-	lines.push('');
+	const verdicts: string[] = [];
 	const verdict = (ok: boolean) => (ok ? 'PASS' : 'FAIL');
-	lines.push(`${verdict(allL <= 1)} motion median length error ≤ 1 px (median over bands ${fmt(allL)})`);
-	lines.push(`${verdict(allA <= 2)} motion median angle error ≤ 2° (median over bands ${fmt(allA)})`);
-	const foundCount = defocus.filter((d) => d.found !== null).length;
-	lines.push(`${verdict(defocusMedian <= 0.5)} defocus median radius error ≤ 0.5 px (${fmt(defocusMedian)}; a missed radius counts as infinite; ${foundCount} of ${defocus.length} found)`);
-	lines.push(`${verdict(worstBlurredNoise <= 0.15)} noise within 15 % on blurred textured scenes (worst ${(100 * worstBlurredNoise).toFixed(0)} %)`);
-	lines.push(`${verdict(seconds.wall < 3)} 12 MP estimate under 3 s (${seconds.wall.toFixed(2)} s wall, ${seconds.cpu.toFixed(2)} s CPU)`);
-	lines.push('', `(${((performance.now() - started) / 1000).toFixed(0)} s)`);
+	if (parts.has('motion')) {
+		const motion = await motionRows(options.perBand ?? 12);
+		lines.push('Straight motion, all angles, noise σ ≤ 1 % (failure: error > 3 px or > 5°, or no motion proposal)');
+		lines.push('band        cases  median |ΔL| px  median |Δθ| °  failures');
+		for (const r of motion) lines.push(`${r.band.padEnd(11)} ${String(r.cases).padStart(5)}  ${fmt(r.medianLengthError).padStart(14)}  ${fmt(r.medianAngleError).padStart(13)}  ${(100 * r.failureRate).toFixed(0).padStart(7)} %`);
+		for (const r of motion) for (const f of r.failed) lines.push(`  failed: ${f}`);
+		lines.push('');
+		const allL = median(motion.map((r) => r.medianLengthError));
+		const allA = median(motion.map((r) => r.medianAngleError));
+		verdicts.push(`${verdict(allL <= 1)} motion median length error ≤ 1 px (median over bands ${fmt(allL)})`);
+		verdicts.push(`${verdict(allA <= 2)} motion median angle error ≤ 2° (median over bands ${fmt(allA)})`);
+	}
+	if (parts.has('defocus')) {
+		const defocus = await defocusErrors();
+		lines.push('Defocus, noise σ 0.2 %');
+		lines.push('radius px  found px  |ΔR| px');
+		for (const d of defocus) lines.push(`${fmt(d.radius, 1).padStart(9)}  ${d.found === null ? '    none' : fmt(d.found).padStart(8)}  ${d.found === null ? '      —' : fmt(Math.abs(d.found - d.radius)).padStart(7)}`);
+		lines.push('');
+		const defocusMedian = median(defocus.map((d) => (d.found === null ? Infinity : Math.abs(d.found - d.radius))));
+		const foundCount = defocus.filter((d) => d.found !== null).length;
+		verdicts.push(`${verdict(defocusMedian <= 0.5)} defocus median radius error ≤ 0.5 px (${fmt(defocusMedian)}; a missed radius counts as infinite; ${foundCount} of ${defocus.length} found)`);
+	}
+	if (parts.has('sharp')) {
+		const sharpCases = await sharpRows();
+		lines.push('Sharp scenes (no blur): the answer should be no-confident-blur');
+		lines.push('scene              noise   verdict            proposal or weakest note');
+		for (const r of sharpCases) lines.push(`${r.scene.padEnd(18)} ${(100 * r.noise).toFixed(1).padStart(4)} %  ${r.verdict.padEnd(18)} ${r.detail}`);
+		lines.push('');
+		const wrong = sharpCases.filter((r) => r.verdict !== 'no-confident-blur').length;
+		verdicts.push(`${verdict(wrong === 0)} sharp scenes answer no confident blur (${sharpCases.length - wrong} of ${sharpCases.length})`);
+	}
+	if (parts.has('noise')) {
+		const noise = await noiseRows();
+		lines.push('Noise σ = min(Immerkær, wavelet MAD), relative error (two scenes each)');
+		lines.push('true σ   blurred scenes      sharp scenes');
+		for (const r of noise) lines.push(`${(100 * r.sigma).toFixed(1).padStart(5)} %  ${r.blurred.map((e) => `${(100 * e).toFixed(0).padStart(5)} %`).join(' ')}   ${r.sharp.map((e) => `${(100 * e).toFixed(0).padStart(5)} %`).join(' ')}`);
+		lines.push('');
+		const worstBlurredNoise = Math.max(...noise.flatMap((r) => r.blurred.map(Math.abs)));
+		verdicts.push(`${verdict(worstBlurredNoise <= 0.15)} noise within 15 % on blurred textured scenes (worst ${(100 * worstBlurredNoise).toFixed(0)} %)`);
+	}
+	if (parts.has('timing')) {
+		const seconds = await timing12mp();
+		lines.push(`12 MP (4000×3000) estimate: ${seconds.wall.toFixed(2)} s wall, ${seconds.cpu.toFixed(2)} s CPU`);
+		lines.push('');
+		verdicts.push(`${verdict(seconds.wall < 3)} 12 MP estimate under 3 s (${seconds.wall.toFixed(2)} s wall, ${seconds.cpu.toFixed(2)} s CPU)`);
+	}
+	lines.push(...verdicts, '', `(${((performance.now() - started) / 1000).toFixed(0)} s)`);
 	return lines.join('\n');
 }

@@ -22,11 +22,19 @@ export interface AnalysisBandOptions {
 	 * zeros are filled by noise and no longer visible. @default 2
 	 */
 	snrFloor?: number;
+	/**
+	 * 'first': the band ends before the first ring below the floor (lines and fall-offs, whose
+	 * signal only decreases outwards). 'last': it ends at the last ring above the floor, so a dark
+	 * ring that dips into the noise, with a brighter lobe beyond it, stays inside (defocus).
+	 * @default 'first'
+	 */
+	edge?: 'first' | 'last';
 }
 
 /**
  * The usable band of a centred power spectrum: from 3 bins (past the window's main lobe) to the
- * first ring whose mean power P̄(r) < snrFloor·σ², at most 0.9·N/2. Common practice, no source:
+ * first ring whose mean power P̄(r) < snrFloor·σ² (or, with edge 'last', the last ring above it),
+ * at most 0.9·N/2. Common practice, no source:
  * spectral zeros are read only where the signal stands above the noise (Cannon 1976 uses the same
  * argument for averaging sub-image spectra).
  * @throws RangeError for a negative or non-finite noise σ or a non-positive snrFloor.
@@ -39,10 +47,14 @@ export function analysisBand(power: Float64Array, n: number, noiseSigma: number,
 	const ring = radialMean(power, n, outer);
 	const floor = snrFloor * noiseSigma * noiseSigma;
 	let rMax = outer;
-	for (let r = INNER_BINS; r <= outer; r++) {
-		if (!(ring[r] > floor)) {
-			rMax = r - 1;
-			break;
+	if (options.edge === 'last') {
+		while (rMax > INNER_BINS && !(ring[rMax] > floor)) rMax--;
+	} else {
+		for (let r = INNER_BINS; r <= outer; r++) {
+			if (!(ring[r] > floor)) {
+				rMax = r - 1;
+				break;
+			}
 		}
 	}
 	return { rMin: INNER_BINS, rMax: Math.max(INNER_BINS, rMax) };

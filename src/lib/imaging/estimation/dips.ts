@@ -20,6 +20,18 @@ export const DIP_MARGIN = 0.15;
  *   one dip alone is too easily imitated by the scene
  */
 export function dipShare(profile: Float64Array, first: number, zeros: number[], maxTested = 3): number {
+	const { passed, tested } = dipCount(profile, first, zeros, maxTested);
+	return passed / Math.max(tested, 2);
+}
+
+/**
+ * The counts behind {@link dipShare}: how many of the first `maxTested` zeros whose outer lobe lies
+ * inside the profile were tested, and how many of them are real dips. Rule 'mean' is dipShare's
+ * (darker than the mean of the two lobe middles by `margin`); rule 'both' asks for a local
+ * minimum, darker than each lobe middle by `margin`, which a convex fall-off (a power law in
+ * the radius, whose mean of two samples always exceeds the sample between) cannot pass.
+ */
+export function dipCount(profile: Float64Array, first: number, zeros: number[], maxTested = 3, rule: 'mean' | 'both' = 'mean', margin = DIP_MARGIN): { passed: number; tested: number } {
 	const last = first + profile.length - 1;
 	const at = (bin: number) => {
 		const p = Math.max(0, bin - first);
@@ -33,7 +45,8 @@ export function dipShare(profile: Float64Array, first: number, zeros: number[], 
 		const outer = (zeros[k] + zeros[k + 1]) / 2;
 		if (inner < first || outer > last) continue;
 		tested++;
-		if (at(zeros[k]) < (at(inner) + at(outer)) / 2 - DIP_MARGIN) passed++;
+		const bright = rule === 'both' ? Math.min(at(inner), at(outer)) : (at(inner) + at(outer)) / 2;
+		if (at(zeros[k]) < bright - margin) passed++;
 	}
-	return passed / Math.max(tested, 2);
+	return { passed, tested };
 }

@@ -19,8 +19,10 @@ export interface BlurProposal {
 	/**
 	 * Evidence in [0, 1]. Lines and rings: the correlation between the observed log-spectrum
 	 * profile and the proposed kernel's zero pattern after the scene's smooth fall-off is removed
-	 * (1 = the dark lines or rings sit exactly where the kernel predicts). Fall-off: at most 0.6,
-	 * the share of a pure power law's misfit the Gaussian explains (a weaker kind of evidence).
+	 * (1 = the dark lines or rings sit exactly where the kernel predicts), times the share of the
+	 * predicted zeros that are real dips (for rings also the share of directions in which the
+	 * first ring is dark). Fall-off: at most 0.6, the share of the camera-only model's misfit the
+	 * Gaussian explains, times its agreement past the band (a weaker kind of evidence).
 	 */
 	confidence: number;
 	method: EstimationMethod;
@@ -98,8 +100,11 @@ function checkFraction(name: string, value: number): void {
  * 2. Spectrum: Welch average of Hann-windowed N×N tiles (averagedPowerSpectrum); the band analysed
  *    ends where the ring-mean power drops to twice the noise power (analysisBand).
  * 3. Readings: straight motion from parallel dark lines (estimateStraightMotion), defocus from dark
- *    rings (estimateDefocus), and, where neither is confident, a Gaussian from the fall-off
- *    (estimateGaussianFalloff). See each for the formulas and sources.
+ *    rings (estimateDefocus, on a band that runs to the last ring above the noise floor so that a
+ *    ring sunk into the noise with a brighter lobe beyond it is kept, with the noise power
+ *    subtracted), and, where neither is confident, a Gaussian from the fall-off
+ *    (estimateGaussianFalloff, which must beat the power law seen through a Gaussian of
+ *    minGaussianSigma, the camera's own sharpness). See each for the formulas and sources.
  * 4. Verdict: the most confident reading that reaches its threshold; otherwise 'no-confident-blur',
  *    with the weak candidates named in the notes. A kernel is never proposed silently: every
  *    proposal carries its confidence and the spectrum marks that justify it.
@@ -173,7 +178,9 @@ export function estimateBlur(plane: Plane, options: EstimateBlurOptions = {}): B
 			}
 		});
 	}
-	const defocus = estimateDefocus(logPower, n, band);
+	// Rings may sink into the noise with a brighter lobe beyond them: the defocus band runs to the last ring above the floor.
+	const ringBand = analysisBand(spectrum.power, n, sigma, { edge: 'last' });
+	const defocus = estimateDefocus(logPower, n, ringBand, { noisePower: sigma * sigma });
 	if (defocus) {
 		candidates.push({
 			kernel: { kind: 'disk', radius: round(defocus.radius, 2) },
@@ -183,7 +190,7 @@ export function estimateBlur(plane: Plane, options: EstimateBlurOptions = {}): B
 				spectrum: image,
 				marks: defocus.marks,
 				profile: defocus.profile,
-				caption: `First dark ring at ${round((0.6098 * n) / defocus.radius, 1)} bins: R = 0.6098·${n}/k0 (${defocus.zerosInBand} ring(s) in band).`
+				caption: `First dark ring at ${round((0.6098 * n) / defocus.radius, 1)} bins: R = 0.6098·${n}/k0 (${defocus.zerosInBand} ring(s) in band ${ringBand.rMin}–${ringBand.rMax}; first ring dark in ${Math.round(defocus.isotropy * 6)} of 6 directions).`
 			}
 		});
 	}
@@ -195,7 +202,7 @@ export function estimateBlur(plane: Plane, options: EstimateBlurOptions = {}): B
 		return { proposals: zeroPattern, noise, verdict: zeroPattern[0].kernel.kind === 'line' ? 'motion' : 'defocus', notes, spectrum: image, region };
 	}
 
-	const gaussian = estimateGaussianFalloff(spectrum.power, n, band, sigma);
+	const gaussian = estimateGaussianFalloff(spectrum.power, n, band, sigma, { cameraSigma: minGaussianSigma });
 	if (gaussian && gaussian.sigma >= minGaussianSigma && gaussian.confidence >= minGaussianConfidence) {
 		notes.push('No spectral zeros were found; the Gaussian is read from the fall-off alone and is less certain than a line or ring reading.');
 		const proposal: BlurProposal = {

@@ -1,7 +1,7 @@
 export { estimateBlur, type BlurEstimate, type BlurProposal, type BlurVerdict, type EstimateBlurOptions, type EstimationMethod } from './estimate-blur';
 export { estimateStraightMotion, type MotionEstimate, type MotionOptions } from './motion';
 export { estimateDefocus, type DefocusEstimate, type DefocusOptions } from './defocus';
-export { estimateGaussianFalloff, type GaussianEstimate, GAUSSIAN_CONFIDENCE_CAP } from './gaussian';
+export { estimateGaussianFalloff, type GaussianEstimate, type GaussianOptions, GAUSSIAN_CONFIDENCE_CAP } from './gaussian';
 export { estimateNoise, estimateNoiseEdgeMasked, estimateNoiseMad, type NoiseEstimate } from './noise';
 export { averagedPowerSpectrum, MIN_TILE_SIZE, type PowerSpectrum, type SpectrumOptions } from './spectrum';
 export { analysisBand, type AnalysisBand, type AnalysisBandOptions } from './band';
