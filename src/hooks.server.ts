@@ -1,7 +1,7 @@
 import { error, json, redirect, type Handle, type HandleServerError } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { randomUUID } from 'node:crypto';
-import { decideAccess } from '$lib/server/access';
+import { allowedMethods, decideAccess } from '$lib/server/access';
 import { authHandle } from '$lib/server/auth';
 import { closeDb, db } from '$lib/server/db';
 import { config } from '$lib/server/config';
@@ -55,6 +55,10 @@ const guardHandle: Handle = async ({ event, resolve }) => {
 	const isApi = routeId.startsWith('/api/');
 	const decision = decideAccess(routeId, event.request.method, event.locals.user?.role);
 	if (decision === 'allow') return resolve(event);
+	if (decision === 'method') {
+		const allow = allowedMethods(routeId).join(', ');
+		return json({ error: `${event.request.method} is not served here; use ${allow}` }, { status: 405, headers: { allow } });
+	}
 	if (decision === 'anonymous') {
 		if (isApi) return json({ error: 'Sign in first' }, { status: 401 });
 		const target = event.url.pathname + event.url.search;

@@ -433,3 +433,13 @@ describe('completeness: a new route cannot be forgotten', () => {
 		expect([...new Set(stale)]).toEqual([]);
 	});
 });
+
+// ── a method a route does not serve: 405 with Allow for everyone (RFC 9110 §15.5.6) ───────────────
+
+test('DELETE /api/cases is 405 with an Allow header, signed in or not', async () => {
+	for (const caller of ['anonymous', 'admin'] as const) {
+		const response = await sessions[caller].request('DELETE', '/api/cases');
+		expect(response.status, caller).toBe(405);
+		expect(response.headers.get('allow')?.split(', ').sort()).toEqual(['GET', 'HEAD', 'POST']);
+	}
+});

@@ -90,14 +90,21 @@ export const ROUTE_ACCESS: Record<string, Partial<Record<Method, Audience>>> = {
 	'/api/dev/mailbox': { GET: everyone }
 };
 
-export type AccessDecision = 'allow' | 'anonymous' | 'forbidden' | 'unlisted';
+export type AccessDecision = 'allow' | 'anonymous' | 'forbidden' | 'unlisted' | 'method';
+
+/** The methods a route serves, for a 405's Allow header. */
+export function allowedMethods(routeId: string): string[] {
+	const methods = Object.keys(ROUTE_ACCESS[routeId] ?? {});
+	return methods.includes('GET') ? [...methods, 'HEAD'] : methods;
+}
 
 export function decideAccess(routeId: string, method: string, role: Role | undefined): AccessDecision {
 	const byMethod = ROUTE_ACCESS[routeId];
 	// HEAD follows GET, as SvelteKit serves it.
 	const audience = byMethod?.[(method === 'HEAD' ? 'GET' : method) as Method];
 	if (!byMethod) return 'unlisted';
-	if (!audience) return role ? 'forbidden' : 'anonymous';
+	// A method the route does not serve at all is the same answer for everyone (405, RFC 9110 §15.5.6).
+	if (!audience) return 'method';
 	if (audience === 'public') return 'allow';
 	if (!role) return 'anonymous';
 	return audience.includes(role) ? 'allow' : 'forbidden';
