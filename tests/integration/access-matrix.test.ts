@@ -256,6 +256,7 @@ const TABLE: Row[] = [
 	{ route: '/api/proposals/[id=id]/return', method: 'POST', path: () => '/api/proposals/999999/return', expect: [401, 404, 403, 404, 403],
 		request: () => ({ json: { comment: 'Matrix: needs work' } }) },
 	{ route: '/api/proposals/[id=id]/release', method: 'POST', path: () => '/api/proposals/999999/release', expect: [401, 404, 403, 404, 403] },
+	{ route: '/api/proposals/[id=id]/report', method: 'GET', path: () => '/api/proposals/999999/report', expect: [401, 404, 404, 404, 403] },
 	...(['report', 'result', 'png', 'before', 'after'] as const).map((file): Row => ({
 		route: `/api/portal/items/[id=id]/${file}`, method: 'GET', path: () => `/api/portal/items/999999/${file}`, expect: [401, 403, 403, 403, 404]
 	})),

@@ -211,6 +211,20 @@ describe('submit, return, resubmit, approve, release', () => {
 		expect(actions.filter((a) => a === 'result_downloaded')).toHaveLength(2);
 	});
 
+	test('staff download the same released PDF from the review page; the download is a custody event', async () => {
+		const response = await supervisor.get(`/api/proposals/${second.id}/report`, { accept: '*/*' });
+		expect(response.status).toBe(200);
+		expect(response.headers.get('content-disposition')).toContain(`${reportId}.pdf`);
+		expect(sha256(await bytesOf(response))).toBe(sha256(pdf));
+		const supervisorId = await idOf('users', { email: demoUser('supervisor').email });
+		const downloads = await testDb()('custody_events').where({ item_id: item.id, actor_id: supervisorId, action: 'report_downloaded' });
+		expect(downloads).toHaveLength(1);
+		expect(downloads[0].hash_after).toBe(sha256(pdf));
+		// The unreleased first proposal has no report; a client is pointed to the portal (404 here).
+		expect((await supervisor.get(`/api/proposals/${first.id}/report`)).status).toBe(404);
+		expect((await client.get(`/api/proposals/${second.id}/report`)).status).toBe(403);
+	});
+
 	test('the PDF states the id, both SHA-256s, every parameter, the approval and each caveat, with "page n of m" on every page', async () => {
 		const raw = pdfText(pdf);
 		const text = squash(raw);

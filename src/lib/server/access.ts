@@ -76,6 +76,8 @@ export const ROUTE_ACCESS: Record<string, Partial<Record<Method, Audience>>> = {
 	'/api/proposals/[id=id]/approve': { POST: reviewers },
 	'/api/proposals/[id=id]/return': { POST: reviewers },
 	'/api/proposals/[id=id]/release': { POST: reviewers },
+	// The released report for the lab's staff; clients get theirs through the portal.
+	'/api/proposals/[id=id]/report': { GET: staff },
 	'/portal': { GET: clients },
 	'/portal/items/[id=id]': { GET: clients },
 	'/api/portal/items/[id=id]/report': { GET: clients },

@@ -25,6 +25,8 @@ import { renderReportPdf } from '../report/report-pdf';
 import { reviewNotices } from '../review-notices';
 import type { ObjectStorage } from '../storage';
 import { custodyService } from './custody.service';
+import { visibleItem } from './item-access';
+import type { PortalFile } from './portal.service';
 import { canReview } from './review.service';
 
 export interface ReleaseDeps {
@@ -99,6 +101,29 @@ export function releaseService(knex: Knex, deps: ReleaseDeps) {
 	}
 
 	return {
+		/**
+		 * The released report PDF for the lab's own staff (the client's copy comes through the
+		 * portal). Each download is a custody event, as for a client.
+		 */
+		async reportFile(user: SessionUser, proposalId: number): Promise<PortalFile> {
+			const proposal = user.role === 'client' ? undefined : await proposals.findById(proposalId);
+			if (!proposal) throw new NotFoundError('Proposal');
+			await visibleItem(knex, user, proposal.itemId);
+			const report = await reports.findByProposal(proposal.id);
+			if (!report) throw new NotFoundError('Report');
+			const bytes = await deps.storage.readBuffer(report.storageKey);
+			await custody.record({
+				action: 'report_downloaded',
+				actor: { id: user.id, role: user.role },
+				caseId: report.caseId,
+				itemId: report.itemId,
+				runId: proposal.runId,
+				detail: { reportId: report.reportId },
+				hashAfter: report.pdfSha256
+			});
+			return { bytes, filename: `${report.reportId}.pdf`, contentType: 'application/pdf', sha256: report.pdfSha256 };
+		},
+
 		async release(user: SessionUser, proposalId: number): Promise<ReportRow> {
 			if (!canReview(user)) throw new ForbiddenError('Only supervisors and administrators release results');
 			const proposal = await proposals.findById(proposalId);
