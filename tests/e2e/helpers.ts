@@ -35,3 +35,26 @@ export async function tableLoaded(page: Page, name: string) {
 	await expect(table).toHaveAttribute('aria-busy', 'false');
 	return table;
 }
+
+/**
+ * Zoom and pan the before/after viewer with the mouse in its first pane, then check that the
+ * original and the result carry one and the same transform (pixel-aligned at the same scale).
+ */
+export async function expectComparePanesAligned(page: Page): Promise<void> {
+	const panes = page.getByTestId('compare-pane');
+	await expect(panes).toHaveCount(2);
+	await panes.first().scrollIntoViewIfNeeded();
+	const pane = (await panes.first().boundingBox())!;
+	const centre = { x: pane.x + pane.width / 2, y: pane.y + pane.height / 2 };
+	await page.mouse.move(centre.x, centre.y);
+	await page.mouse.wheel(0, -300);
+	await expect(page.getByTestId('compare-zoom')).not.toHaveText('100 %');
+	await page.mouse.down();
+	await page.mouse.move(centre.x - 50, centre.y + 30, { steps: 4 });
+	await page.mouse.up();
+	const [left, right] = await Promise.all(
+		[page.getByTestId('original-preview'), page.getByTestId('result-preview')].map((image) => image.evaluate((img: HTMLElement) => img.style.transform))
+	);
+	expect(left).toMatch(/translate\(.+\) scale\(.+\)/);
+	expect(right).toBe(left);
+}

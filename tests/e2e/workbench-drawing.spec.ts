@@ -8,7 +8,7 @@
  */
 import { mkdirSync } from 'node:fs';
 import { expect, test, type Page } from '@playwright/test';
-import { signIn, tableLoaded, waitForHydration } from './helpers';
+import { expectComparePanesAligned, signIn, tableLoaded, waitForHydration } from './helpers';
 
 const DEMO_PHOTO = 'fenwick-row-bay-14.png';
 
@@ -80,21 +80,7 @@ test('draw a path, preview a region, queue the run and compare aligned panes', a
 	await expect(row).toHaveAttribute('data-run-status', 'succeeded', { timeout: 120_000 });
 
 	// The before/after viewer: both panes carry one transform after zoom and pan.
-	const panes = page.getByTestId('compare-pane');
-	await expect(panes).toHaveCount(2);
-	await panes.first().scrollIntoViewIfNeeded();
-	const pane = (await panes.first().boundingBox())!;
-	await page.mouse.move(pane.x + pane.width / 2, pane.y + pane.height / 2);
-	await page.mouse.wheel(0, -300);
-	await expect(page.getByTestId('compare-zoom')).not.toHaveText('100 %');
-	await page.mouse.down();
-	await page.mouse.move(pane.x + pane.width / 2 - 50, pane.y + pane.height / 2 + 30, { steps: 4 });
-	await page.mouse.up();
-	const transforms = await Promise.all(
-		[page.getByTestId('original-preview'), page.getByTestId('result-preview')].map((image) => image.evaluate((img: HTMLElement) => img.style.transform))
-	);
-	expect(transforms[0]).toMatch(/translate\(.+\) scale\(.+\)/);
-	expect(transforms[1]).toBe(transforms[0]);
+	await expectComparePanesAligned(page);
 
 	mkdirSync('tests/artifacts', { recursive: true });
 	for (const [width, height] of [

@@ -7,7 +7,7 @@ import { mkdirSync } from 'node:fs';
 import { expect, test, type Page } from '@playwright/test';
 import sharp from 'sharp';
 import { buildKernel } from '../../src/lib/imaging/kernels/build';
-import { signIn, tableLoaded, waitForHydration } from './helpers';
+import { expectComparePanesAligned, signIn, tableLoaded, waitForHydration } from './helpers';
 
 /** An invented harbour sign, blurred by the engine's own 9-pixel motion at 30°; unique text so a rerun is never a duplicate. */
 async function blurredSign(): Promise<Buffer> {
@@ -102,21 +102,7 @@ test('upload, queue a straight-motion run, follow it and see the result', async 
 	await expect(row.locator('[data-digest]')).toHaveAttribute('data-digest', /^[0-9a-f]{64}$/);
 
 	// Before/after viewer: zoom and pan in one pane move both, pixel for pixel.
-	const transforms = () =>
-		Promise.all([page.getByTestId('original-preview'), result].map((image) => image.evaluate((img: HTMLElement) => img.style.transform)));
-	const panes = page.getByTestId('compare-pane');
-	await expect(panes).toHaveCount(2);
-	await panes.first().scrollIntoViewIfNeeded();
-	const paneBox = (await panes.first().boundingBox())!;
-	await page.mouse.move(paneBox.x + paneBox.width / 2, paneBox.y + paneBox.height / 2);
-	await page.mouse.wheel(0, -200);
-	await expect(page.getByTestId('compare-zoom')).not.toHaveText('100 %');
-	await page.mouse.down();
-	await page.mouse.move(paneBox.x + paneBox.width / 2 - 40, paneBox.y + paneBox.height / 2 + 25, { steps: 4 });
-	await page.mouse.up();
-	const [left, right] = await transforms();
-	expect(left).toMatch(/translate\(.+\) scale\(.+\)/);
-	expect(right).toBe(left);
+	await expectComparePanesAligned(page);
 	await page.getByRole('button', { name: 'Swipe' }).click();
 	await expect(page.getByRole('slider')).toBeVisible();
 	await page.getByRole('button', { name: 'Side by side' }).click();

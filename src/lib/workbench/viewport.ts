@@ -22,10 +22,11 @@ export interface Point {
 	y: number;
 }
 
-/** One level of the server's pyramid, as its manifest lists it. */
+/** One level of the server's pyramid, as its manifest lists it (src/lib/server/tiles/pyramid.ts builds it). */
 export interface PyramidLevel {
+	/** 0 = full resolution; level k is the original halved k times. */
 	level: number;
-	/** Level pixels per original pixel (1 at level 0, halving each level). */
+	/** Level pixels per original pixel: exactly 2^-level. */
 	scale: number;
 	width: number;
 	height: number;

@@ -22,3 +22,18 @@ export function warmTiles(source: TileSource): void {
 }
 
 export type { TileCache, TileSource } from './tile-cache';
+
+/**
+ * A tile or region PNG: private (access-controlled) and immutable (keyed by the original's
+ * content, which never changes).
+ */
+export function displayPngResponse(bytes: Buffer): Response {
+	return new Response(new Uint8Array(bytes), {
+		headers: {
+			'content-type': 'image/png',
+			'content-length': String(bytes.length),
+			'cache-control': 'private, max-age=31536000, immutable',
+			'x-content-type-options': 'nosniff'
+		}
+	});
+}

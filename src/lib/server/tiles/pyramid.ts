@@ -12,22 +12,15 @@ import { mkdir, writeFile } from 'node:fs/promises';
 import { join } from 'node:path';
 import sharp from 'sharp';
 import { decodeOptions } from '../intake/inspect';
+import type { PyramidLevel } from '../../workbench/viewport';
 import { halve, type RawImage } from './halve';
 
 export const TILE_SIZE = 256;
 /** Bumped when tile bytes or layout change, so an old cache is never served as the new one. */
 export const PYRAMID_VERSION = 1;
 
-export interface PyramidLevel {
-	/** 0 = full resolution; level k is the original halved k times. */
-	level: number;
-	/** Level pixels per original pixel: exactly 2^-level. */
-	scale: number;
-	width: number;
-	height: number;
-	columns: number;
-	rows: number;
-}
+/** A level as the manifest lists it: the same type the zoom view reads (level 0 = full resolution, scale exactly 2^-level). */
+export type { PyramidLevel } from '../../workbench/viewport';
 
 /** What a finished build writes beside its tiles (`manifest.json`). */
 export interface PyramidManifest {

@@ -2,7 +2,7 @@ import { regionQuerySchema } from '$lib/schemas/tiles';
 import { db } from '$lib/server/db';
 import { apiCall, parseWith, searchParamsObject } from '$lib/server/http';
 import { storage } from '$lib/server/storage';
-import { tiles } from '$lib/server/tiles';
+import { displayPngResponse, tiles } from '$lib/server/tiles';
 import { tileService } from '$lib/server/tiles/tile.service';
 import type { RequestHandler } from './$types';
 
@@ -11,12 +11,5 @@ export const GET: RequestHandler = ({ locals, params, url }) =>
 	apiCall(async () => {
 		const rect = parseWith(regionQuerySchema, searchParamsObject(url));
 		const bytes = await tileService(db(), storage(), tiles()).region(locals.user!, Number(params.id), rect);
-		return new Response(new Uint8Array(bytes), {
-			headers: {
-				'content-type': 'image/png',
-				'content-length': String(bytes.length),
-				'cache-control': 'private, max-age=31536000, immutable',
-				'x-content-type-options': 'nosniff'
-			}
-		});
+		return displayPngResponse(bytes);
 	});

@@ -2,7 +2,7 @@ import { tilePositionSchema } from '$lib/schemas/tiles';
 import { db } from '$lib/server/db';
 import { apiCall, parseWith } from '$lib/server/http';
 import { storage } from '$lib/server/storage';
-import { tiles } from '$lib/server/tiles';
+import { displayPngResponse, tiles } from '$lib/server/tiles';
 import { tileService } from '$lib/server/tiles/tile.service';
 import type { RequestHandler } from './$types';
 
@@ -11,13 +11,5 @@ export const GET: RequestHandler = ({ locals, params }) =>
 	apiCall(async () => {
 		const position = parseWith(tilePositionSchema, { level: params.level, column: params.column, row: params.row });
 		const bytes = await tileService(db(), storage(), tiles()).tile(locals.user!, Number(params.id), position);
-		return new Response(new Uint8Array(bytes), {
-			headers: {
-				'content-type': 'image/png',
-				'content-length': String(bytes.length),
-				// private: access-controlled. immutable: keyed by the original's content, which never changes.
-				'cache-control': 'private, max-age=31536000, immutable',
-				'x-content-type-options': 'nosniff'
-			}
-		});
+		return displayPngResponse(bytes);
 	});
