@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { linearToSrgb, srgbToLinear, toLinear, toSrgb } from './colour';
+import { linearToSrgb, linearToSrgbArray, srgbToLinear, toLinear, toSrgb } from './colour';
 import { createPlane } from './types';
 
 describe('sRGB transfer (IEC 61966-2-1)', () => {
@@ -45,5 +45,30 @@ describe('sRGB transfer (IEC 61966-2-1)', () => {
 		const back = toSrgb(lin);
 		expect(back.transfer).toBe('srgb');
 		expect(back.planes[0].data[1]).toBeCloseTo(0.5, 6);
+	});
+
+	it('linearToSrgbArray gives the bits of linearToSrgb on float32 values, in place too', () => {
+		// Reference: linearToSrgb above (IEC 61966-2-1 §5.3 formula, Math.pow) rounded to float32.
+		// Every 61st float32 bit pattern from 0.003 to just above 1 (≈ 1.2 million values, all binades
+		// of the power segment), the ends, the breakpoint, and values outside [0, 1].
+		const bits = new Uint32Array(1);
+		const asFloat = new Float32Array(bits.buffer);
+		asFloat[0] = 0.003;
+		const first = bits[0];
+		asFloat[0] = 1;
+		const last = bits[0] + 3;
+		const patterns = new Uint32Array(Math.ceil((last - first) / 61));
+		for (let k = 0; k < patterns.length; k++) patterns[k] = first + 61 * k;
+		const values = Float32Array.from([...new Float32Array(patterns.buffer), 0, -0, 1, 0.0031308, -0.25, 1.5, 1e-30, Math.fround(0.0031308) + 1e-9]);
+		const reference = Float32Array.from(values, linearToSrgb);
+		const same = (a: Float32Array, b: Float32Array) => Buffer.from(a.buffer).equals(Buffer.from(b.buffer));
+		expect(same(linearToSrgbArray(values), reference)).toBe(true);
+		linearToSrgbArray(values, values);
+		expect(same(values, reference)).toBe(true);
+	});
+
+	it('linearToSrgbArray rejects non-finite values as linearToSrgb does', () => {
+		for (const bad of [NaN, Infinity, -Infinity]) expect(() => linearToSrgbArray(Float32Array.from([0.5, bad]))).toThrow(RangeError);
+		expect(() => linearToSrgbArray(Float32Array.from([0.5]), new Float32Array(2))).toThrow(RangeError);
 	});
 });

@@ -21,12 +21,25 @@ export function estimateNoiseSigma(plane: Plane): number {
 		const up = (i - 1) * width;
 		const mid = i * width;
 		const down = (i + 1) * width;
+		// The 3×3 window slides right: two of its columns are carried over, one is loaded per pixel.
+		let a0 = d[up];
+		let a1 = d[up + 1];
+		let b0 = d[mid];
+		let b1 = d[mid + 1];
+		let c0 = d[down];
+		let c1 = d[down + 1];
 		for (let j = 1; j < width - 1; j++) {
-			const r =
-				d[up + j - 1] - 2 * d[up + j] + d[up + j + 1] -
-				2 * (d[mid + j - 1] - 2 * d[mid + j] + d[mid + j + 1]) +
-				d[down + j - 1] - 2 * d[down + j] + d[down + j + 1];
+			const a2 = d[up + j + 1];
+			const b2 = d[mid + j + 1];
+			const c2 = d[down + j + 1];
+			const r = a0 - 2 * a1 + a2 - 2 * (b0 - 2 * b1 + b2) + c0 - 2 * c1 + c2;
 			rowSum += Math.abs(r);
+			a0 = a1;
+			a1 = a2;
+			b0 = b1;
+			b1 = b2;
+			c0 = c1;
+			c1 = c2;
 		}
 		total += rowSum;
 	}

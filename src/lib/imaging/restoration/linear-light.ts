@@ -1,16 +1,24 @@
 import { srgbToLinear } from '../colour';
+import type { BlockParallelism } from '../fft/parallel';
 import { createPlane, planeValues, type Plane, type RasterImage } from '../types';
 
 /** Every 16-bit code (8-bit codes n/255 are the 16-bit codes 257n/65535, the same real numbers). */
 const CODES = 65535;
-let table: Float64Array | undefined;
+let tables: { codes: Float32Array; linear: Float64Array } | undefined;
 
-/** srgbToLinear of the float32 value of every code c/65535, computed once (512 KiB). */
-function decodeTable(): Float64Array {
-	if (table) return table;
-	table = new Float64Array(CODES + 1);
-	for (let c = 0; c <= CODES; c++) table[c] = srgbToLinear(Math.fround(c / CODES));
-	return table;
+/**
+ * The float32 value of every code c/65535 (256 KiB), and srgbToLinear of it (512 KiB), computed once.
+ * Comparing with the stored float32 avoids a division per pixel.
+ */
+function decodeTables(): { codes: Float32Array; linear: Float64Array } {
+	if (tables) return tables;
+	const codes = new Float32Array(CODES + 1);
+	const linear = new Float64Array(CODES + 1);
+	for (let c = 0; c <= CODES; c++) {
+		codes[c] = c / CODES;
+		linear[c] = srgbToLinear(codes[c]);
+	}
+	return (tables = { codes, linear });
 }
 
 /**
@@ -25,18 +33,40 @@ export function planeToLinear(plane: Plane): Plane {
 	const src = planeValues(plane);
 	const [height, width] = plane.shape;
 	const out = createPlane(height, width);
-	const dst = out.data;
-	const lut = decodeTable();
-	for (let i = 0; i < src.length; i++) {
-		const v = src[i];
-		const code = Math.round(v * CODES);
-		dst[i] = code > 0 && code <= CODES && Math.fround(code / CODES) === v ? lut[code] : srgbToLinear(v);
-	}
+	decodeRange(src, out.data, 0, src.length);
 	return out;
 }
 
-/** {@link toLinear} of colour.ts with {@link planeToLinear}: same planes, same bits. */
-export function imageToLinear(img: RasterImage): RasterImage {
-	if (img.transfer !== 'srgb') return { ...img, planes: img.planes.map((p) => createPlane(p.shape[0], p.shape[1], Float32Array.from(planeValues(p)))), transfer: 'linear' };
-	return { ...img, planes: img.planes.map(planeToLinear), transfer: 'linear' };
+/** {@link planeToLinear} of values [first, end) of `src` into `dst` (which may be `src`). */
+export function decodeRange(src: Float32Array, dst: Float32Array, first: number, end: number): void {
+	const { codes, linear } = decodeTables();
+	for (let i = first; i < end; i++) {
+		const v = src[i];
+		const code = Math.round(v * CODES);
+		if (code > 0 && code <= CODES && codes[code] === v) dst[i] = linear[code];
+		// Black (±0, sign kept) as srgbToLinear computes it, without a call in the loop.
+		else if (v === 0) dst[i] = v / 12.92;
+		else dst[i] = srgbToLinear(v);
+	}
 }
+
+/**
+ * {@link toLinear} of colour.ts with {@link planeToLinear}: same planes, same bits.
+ * @param parallel when given (a thread pool that runs row passes), large planes are copied into its
+ *   shared memory and decoded there in place, their rows split between the threads. @default none
+ */
+export function imageToLinear(img: RasterImage, parallel?: BlockParallelism): RasterImage {
+	if (img.transfer !== 'srgb') return { ...img, planes: img.planes.map((p) => createPlane(p.shape[0], p.shape[1], Float32Array.from(planeValues(p)))), transfer: 'linear' };
+	const planes = img.planes.map((plane) => {
+		const [height, width] = plane.shape;
+		if (!parallel?.rows || height * width < PARALLEL_MIN_VALUES) return planeToLinear(plane);
+		const values = parallel.allocate(height * width);
+		values.set(planeValues(plane));
+		parallel.rows({ kind: 'decode', values, rows: height, cols: width });
+		return createPlane(height, width, values);
+	});
+	return { ...img, planes, transfer: 'linear' };
+}
+
+/** Smallest plane whose decoding is split between threads (common practice, no source). */
+const PARALLEL_MIN_VALUES = 2 ** 19;
