@@ -18,6 +18,8 @@ const TILE = 32;
  * instead of being copied in whole: WASM memory never shrinks, and a 24 MP plane would pin 200 MB.
  */
 const SLAB_FLOATS = 2 ** 18;
+/** Smallest transform (complex points) handed to a thread pool; below it the hand-over costs more than it saves (common practice, no source). */
+const PARALLEL_MIN_POINTS = 2 ** 18;
 
 /** Package and build recorded in run records; a different build would round differently. */
 export const PFFFT_PACKAGE = 'pffft-wasm-0.4.2-simd';
@@ -56,6 +58,7 @@ export class PffftBackend implements FftBackend {
 	readonly parallel?: BlockParallelism;
 	private readonly setups = new Map<number, number>();
 	private heap: HeapBuffers | undefined;
+	private readonly transposedKernels = new WeakMap<Float64Array, Float32Array>();
 
 	/**
 	 * @param wasm an initialised PFFFT module (see loadPffftBackend in pffft-loader.ts)
@@ -92,23 +95,49 @@ export class PffftBackend implements FftBackend {
 			this.fallback.fft2(data, rows, cols, inverse);
 			return;
 		}
+		const pool = this.parallel;
+		if (pool?.fft2 && rows * cols >= PARALLEL_MIN_POINTS && typeof SharedArrayBuffer !== 'undefined' && data.buffer instanceof SharedArrayBuffer) {
+			pool.fft2(data, rows, cols, inverse);
+			return;
+		}
+		this.transformRows(data, rows, cols, inverse, 0, rows);
+		this.transformColumns(data, rows, cols, inverse, 0, cols);
+	}
+
+	/**
+	 * Row pass of {@link fft2} over rows [first, end), a slab of contiguous rows at a time. Every row is
+	 * an independent line, so any split of the rows between threads gives the same bits.
+	 */
+	transformRows(data: Float64Array, rows: number, cols: number, inverse: boolean, first: number, end: number): void {
 		const direction = inverse ? BACKWARD : FORWARD;
 		const slabRows = Math.max(1, Math.floor(SLAB_FLOATS / (2 * cols)));
 		const { a, work } = this.reserve(2 * Math.max(slabRows * cols, TILE * rows), 2 * Math.max(rows, cols));
 		const heap = this.wasm.HEAPF32;
 		const base = a >> 2;
-		// Row pass, a slab of contiguous rows at a time. float32 → float64 → float32 is exact, so the
-		// column pass sees the same numbers as if the plane had stayed in WASM memory.
-		for (let i0 = 0; i0 < rows; i0 += slabRows) {
-			const n = Math.min(slabRows, rows - i0);
+		// float32 → float64 → float32 is exact, so the column pass sees the same numbers as if the
+		// plane had stayed in WASM memory.
+		for (let i0 = first; i0 < end; i0 += slabRows) {
+			const n = Math.min(slabRows, end - i0);
 			heap.set(data.subarray(2 * i0 * cols, 2 * (i0 + n) * cols), base);
 			this.lines(a, n, cols, direction, work);
 			data.set(heap.subarray(base, base + 2 * n * cols), 2 * i0 * cols);
 		}
-		// Column pass: TILE columns are gathered into TILE contiguous lines, transformed and put back.
+	}
+
+	/**
+	 * Column pass of {@link fft2} over columns [first, end) (scaled by 1/(rows·cols) when inverse):
+	 * TILE columns are gathered into TILE contiguous lines, transformed and put back. Columns are
+	 * independent lines, so any split between threads gives the same bits.
+	 */
+	transformColumns(data: Float64Array, rows: number, cols: number, inverse: boolean, first: number, end: number): void {
+		const direction = inverse ? BACKWARD : FORWARD;
+		const slabRows = Math.max(1, Math.floor(SLAB_FLOATS / (2 * cols)));
+		const { a, work } = this.reserve(2 * Math.max(slabRows * cols, TILE * rows), 2 * Math.max(rows, cols));
+		const heap = this.wasm.HEAPF32;
+		const base = a >> 2;
 		const scale = inverse ? 1 / (rows * cols) : 1;
-		for (let j0 = 0; j0 < cols; j0 += TILE) {
-			const width = Math.min(TILE, cols - j0);
+		for (let j0 = first; j0 < end; j0 += TILE) {
+			const width = Math.min(TILE, end - j0);
 			for (let i = 0; i < rows; i++) {
 				for (let j = 0, s = 2 * (i * cols + j0), d = base + 2 * i; j < width; j++, s += 2, d += 2 * rows) {
 					heap[d] = data[s];
@@ -139,13 +168,7 @@ export class PffftBackend implements FftBackend {
 		}
 		const count = n * n;
 		const { a, b, work } = this.reserve(2 * count, 2 * n);
-		const kernelT = new Float32Array(2 * count);
-		for (let i = 0; i < n; i++) {
-			for (let j = 0; j < n; j++) {
-				kernelT[2 * (j * n + i)] = kernelSpectrum[2 * (i * n + j)];
-				kernelT[2 * (j * n + i) + 1] = kernelSpectrum[2 * (i * n + j) + 1];
-			}
-		}
+		const kernelT = this.transposedKernel(kernelSpectrum, n);
 		const heap = this.wasm.HEAPF32;
 		const planeA = new Float64Array(heap.buffer, a, count);
 		const planeB = new Float64Array(heap.buffer, b, count);
@@ -166,6 +189,24 @@ export class PffftBackend implements FftBackend {
 			scatterTile(job, layout, first, heap, a >> 2, 1 / count);
 			if (second) scatterTile(job, layout, first + 1, heap, (a >> 2) + 1, 1 / count);
 		}
+	}
+
+	/**
+	 * The kernel spectrum transposed to float32, kept while the spectrum array lives: the strips of an
+	 * edge taper and the iterations of Richardson–Lucy pass the same (never modified) spectra again.
+	 */
+	private transposedKernel(kernelSpectrum: Float64Array, n: number): Float32Array {
+		const cached = this.transposedKernels.get(kernelSpectrum);
+		if (cached?.length === 2 * n * n) return cached;
+		const transposed = new Float32Array(2 * n * n);
+		for (let i = 0; i < n; i++) {
+			for (let j = 0; j < n; j++) {
+				transposed[2 * (j * n + i)] = kernelSpectrum[2 * (i * n + j)];
+				transposed[2 * (j * n + i) + 1] = kernelSpectrum[2 * (i * n + j) + 1];
+			}
+		}
+		this.transposedKernels.set(kernelSpectrum, transposed);
+		return transposed;
 	}
 
 	/** In-place ordered 1-D transforms of `count` contiguous complex lines of `length` at byte offset `pointer`. */

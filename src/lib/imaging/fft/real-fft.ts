@@ -1,5 +1,6 @@
 import type { NdArray } from 'ndarray';
 import type { FftBackend } from './backend';
+import type { BlockParallelism } from './parallel';
 import { defaultFftBackend } from './default-backend';
 
 /**
@@ -68,7 +69,7 @@ export function rfft2Buffer(
 	// z[n, m] = x[n, 2m] + i·x[n, 2m+1] has the row-major layout of x itself.
 	const z = consume && values instanceof Float64Array ? values : Float64Array.from(values);
 	backend.fft2(z, rows, cols / 2, false);
-	return separate(z, rows, cols, output);
+	return separate(z, rows, cols, backend.parallel, output);
 }
 
 /** cos and sin of sign·2πl/cols for l = 0 … cols/2. */
@@ -117,17 +118,35 @@ function realOfComplex(spectrum: HalfSpectrum, backend: FftBackend, out: Float64
 	return out;
 }
 
-function separate(z: Float64Array, rows: number, cols: number, output?: Float64Array): HalfSpectrum {
+function separate(z: Float64Array, rows: number, cols: number, parallel: BlockParallelism | undefined, output?: Float64Array): HalfSpectrum {
+	const halfCols = cols / 2 + 1;
+	const out = output ?? (parallel ? allocateRows(parallel, 2 * rows * halfCols) : new Float64Array(2 * rows * halfCols));
+	if (out.length !== 2 * rows * halfCols) throw new RangeError(`spectrum output holds ${out.length} numbers, expected ${2 * rows * halfCols}`);
+	if (parallel?.rows && splittable(rows * cols, z, out)) parallel.rows({ kind: 'separate', z, rows, cols, out });
+	else separateRows(z, rows, cols, out, 0, rows);
+	return { rows, cols, halfCols, data: out };
+}
+
+/**
+ * Rows [first, end) of the half spectrum from the packed transform Z (see {@link rfft2}); reads rows
+ * k and −k of Z, writes rows k of `out`, so threads may share the rows.
+ */
+export function separateRows(z: Float64Array, rows: number, cols: number, out: Float64Array, first: number, end: number): void {
 	const mh = cols / 2;
 	const halfCols = mh + 1;
-	const out = output ?? new Float64Array(2 * rows * halfCols);
-	if (out.length !== 2 * rows * halfCols) throw new RangeError(`spectrum output holds ${out.length} numbers, expected ${2 * rows * halfCols}`);
 	const [cosTable, sinTable] = twiddles(cols, -1);
-	for (let k = 0; k < rows; k++) {
+	// Column l of Z and column −l of Z* (both wrapped to [0, mh)), looked up instead of two % per element.
+	const column = new Int32Array(mh + 1);
+	const mirrored = new Int32Array(mh + 1);
+	for (let l = 0; l <= mh; l++) {
+		column[l] = l % mh;
+		mirrored[l] = (mh - l) % mh;
+	}
+	for (let k = first; k < end; k++) {
 		const kc = (rows - k) % rows;
 		for (let l = 0; l <= mh; l++) {
-			const a = 2 * (k * mh + (l % mh));
-			const b = 2 * (kc * mh + ((mh - l) % mh));
+			const a = 2 * (k * mh + column[l]);
+			const b = 2 * (kc * mh + mirrored[l]);
 			const zr = z[a];
 			const zi = z[a + 1];
 			const cr = z[b];
@@ -144,7 +163,19 @@ function separate(z: Float64Array, rows: number, cols: number, output?: Float64A
 			out[o + 1] = ai + wr * bi + wi * br;
 		}
 	}
-	return { rows, cols, halfCols, data: out };
+}
+
+/** A buffer the pool's threads share when the pool can split row passes, else an ordinary one. */
+function allocateRows(parallel: BlockParallelism, length: number): Float64Array {
+	return parallel.rows && parallel.allocate64 ? parallel.allocate64(length) : new Float64Array(length);
+}
+
+/** Smallest array (real values) whose row passes are split between threads (common practice, no source). */
+const PARALLEL_MIN_VALUES = 2 ** 19;
+
+/** True when a row pass over `size` values of these buffers is worth splitting and every thread can see them. */
+export function splittable(size: number, ...buffers: Float64Array[]): boolean {
+	return size >= PARALLEL_MIN_VALUES && typeof SharedArrayBuffer !== 'undefined' && buffers.every((b) => b.buffer instanceof SharedArrayBuffer);
 }
 
 /**
@@ -171,8 +202,22 @@ export function irfft2(
 	// The packed complex array z[n, m] = x[n, 2m] + i·x[n, 2m+1] has exactly the row-major layout of
 	// the real output, so it is built in place.
 	const z = out;
+	const parallel = backend.parallel;
+	if (parallel?.rows && splittable(rows * cols, data, z)) parallel.rows({ kind: 'pack', data, rows, cols, z });
+	else packRows(data, rows, cols, z, 0, rows);
+	backend.fft2(z, rows, mh, true);
+	return z;
+}
+
+/**
+ * Rows [first, end) of the packed array Z that {@link irfft2} inverts; reads rows k and −k of the
+ * half spectrum, writes rows k of `z`, so threads may share the rows.
+ */
+export function packRows(data: Float64Array, rows: number, cols: number, z: Float64Array, first: number, end: number): void {
+	const mh = cols / 2;
+	const halfCols = mh + 1;
 	const [cosTable, sinTable] = twiddles(cols, 1);
-	for (let k = 0; k < rows; k++) {
+	for (let k = first; k < end; k++) {
 		const kc = (rows - k) % rows;
 		for (let l = 0; l < mh; l++) {
 			const a = 2 * (k * halfCols + l);
@@ -194,6 +239,4 @@ export function irfft2(
 			z[o + 1] = ai + br;
 		}
 	}
-	backend.fft2(z, rows, mh, true);
-	return z;
 }

@@ -3,11 +3,12 @@ import { buildKernel } from '../kernels/build';
 import { loadPffftBackend } from '../fft/pffft-loader';
 import type { PffftBackend } from '../fft/pffft-backend';
 import { NdarrayFftBackend } from '../fft/ndarray-backend';
+import { seededRandom } from '../random';
 import { restore } from '../restoration/restore';
 import { richardsonLucy } from '../restoration/richardson-lucy';
 import { wienerDeconvolve } from '../restoration/wiener';
 import { convolveValidNaive, syntheticScene } from '../testing/fixtures';
-import type { RasterImage } from '../types';
+import { createPlane, type RasterImage } from '../types';
 import { createNodeFftBackend, pairRange, type NodeFftBackend } from './index';
 
 const bytes = (a: Float32Array) => Buffer.from(a.buffer, a.byteOffset, a.byteLength);
@@ -54,6 +55,30 @@ describe('worker_threads pool: same bytes for every thread count', () => {
 		}
 	});
 
+	it('2-D FFTs of shared buffers split between 1, 2 and 3 threads give the bits of one thread', () => {
+		// 720×400 complex (both axes 16·5-smooth, 288 000 points: above the pool's threshold); 400
+		// columns are 12.5 groups of 32, so the last thread also gets a partial group.
+		const rows = 720;
+		const cols = 400;
+		const random = seededRandom(11);
+		const input = Float64Array.from({ length: 2 * rows * cols }, () => random() - 0.5);
+		for (const inverse of [false, true]) {
+			const reference = input.slice();
+			serial.fft2(reference, rows, cols, inverse);
+			for (const p of pools) {
+				const pool = p.backend.parallel!;
+				const direct = pool.allocate64!(input.length);
+				direct.set(input);
+				pool.fft2!(direct, rows, cols, inverse);
+				expect(Buffer.from(direct.buffer).equals(Buffer.from(reference.buffer))).toBe(true);
+				const routed = pool.allocate64!(input.length);
+				routed.set(input);
+				p.backend.fft2(routed, rows, cols, inverse);
+				expect(Buffer.from(routed.buffer).equals(Buffer.from(reference.buffer))).toBe(true);
+			}
+		}
+	});
+
 	it('restore() Wiener on RGB gives identical bytes with 1, 2 and 3 threads and the same record', () => {
 		const { plane } = blurred();
 		const [h, w] = plane.shape;
@@ -66,6 +91,23 @@ describe('worker_threads pool: same bytes for every thread count', () => {
 			expect(other.record).toEqual(first.record);
 		}
 		expect(first.record.padding.fft).toBe('pffft-wasm-0.4.2-simd, else fft.js-4.0.4+ndarray-fft-1.0.3');
+	});
+
+	it('restore() Wiener large enough to split its FFTs and row passes between threads gives the bytes of one thread', () => {
+		// 1000×800 pads to 864×1152 (995 328 values, packed 864×576 complex): above both split thresholds.
+		const width = 1000;
+		const height = 800;
+		const random = seededRandom(12);
+		const planes = [0, 1, 2].map(() => createPlane(height, width, Float32Array.from({ length: width * height }, () => Math.round(random() * 255) / 255)));
+		const img: RasterImage = { width, height, planes, transfer: 'srgb', sourceBitDepth: 8 };
+		const spec = { kind: 'line' as const, length: 21, angleDeg: 60 };
+		for (const regulariser of ['constant', 'laplacian'] as const) {
+			const reference = restore(img, spec, { method: 'wiener', nsr: 0.01, regulariser }, { fft: serial });
+			for (const p of pools) {
+				const ours = restore(img, spec, { method: 'wiener', nsr: 0.01, regulariser }, { fft: p.backend });
+				ours.image.planes.forEach((q, c) => expect(bytes(q.data).equals(bytes(reference.image.planes[c].data))).toBe(true));
+			}
+		}
 	});
 
 	it('float32 PFFFT stays within 2e-6 of the Float64 ndarray-fft oracle through Wiener and 3 RL iterations', () => {

@@ -153,9 +153,11 @@ export function gatherTile(job: ConvolutionJob, layout: TileLayout, tile: number
 		const rowBase = r * srcCols;
 		const blockBase = 2 * u * b + offset;
 		if (wrap) {
+			// Column c0 + v wrapped into [0, srcCols), stepped instead of taking two remainders per value.
+			let c = ((c0 % srcCols) + srcCols) % srcCols;
 			for (let v = 0; v < b; v++) {
-				const c = (((c0 + v) % srcCols) + srcCols) % srcCols;
 				block[blockBase + 2 * v] = src[rowBase + c];
+				if (++c === srcCols) c = 0;
 			}
 		} else {
 			const vStart = Math.max(0, -c0);

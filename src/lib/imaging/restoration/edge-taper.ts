@@ -1,7 +1,7 @@
 import type { FftBackend } from '../fft/backend';
 import { defaultFftBackend } from '../fft/default-backend';
 import type { Plane } from '../types';
-import { chooseBlockSize, convolve } from './block-convolution';
+import { chooseBlockSize, convolve, kernelBlockSpectrum } from './block-convolution';
 
 /**
  * 1-D taper weight β(d) at distance d from the nearest border of an axis of length n: the
@@ -65,6 +65,8 @@ export function edgeTaper(
 	const left = Math.min(kw, cols);
 	const right = Math.max(left, cols - kw);
 	const strips: [number, number, number, number][] = [[0, top, 0, cols], [bottom, rows, 0, cols], [top, bottom, 0, left], [top, bottom, right, cols]];
+	// Strips of the same block size share one kernel spectrum (computed by the same code either way).
+	const spectra = new Map<number, Float64Array>();
 	const blurs = strips.map(([r0, r1, c0, c1]) => {
 		const out = new Float32Array(Math.max(0, r1 - r0) * Math.max(0, c1 - c0));
 		if (out.length === 0) return out;
@@ -73,7 +75,9 @@ export function edgeTaper(
 			rowOffset: r0 - ((kh - 1) >> 1), colOffset: c0 - ((kw - 1) >> 1), kernel, kernelRows: kh, kernelCols: kw,
 			outside: 'wrap' as const, blockSize: chooseBlockSize(kh, kw, r1 - r0, c1 - c0)
 		};
-		convolve(job, backend);
+		let spectrum = spectra.get(job.blockSize);
+		if (!spectrum) spectra.set(job.blockSize, (spectrum = kernelBlockSpectrum(job, backend)));
+		convolve(job, backend, spectrum);
 		return out;
 	});
 	if (output !== values) output.set(values);

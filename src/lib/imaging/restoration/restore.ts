@@ -1,12 +1,13 @@
 import { clippedFraction } from '../analysis/clipping';
 import { estimateNoiseSigma } from '../analysis/noise';
 import { recoverability, type Recoverability } from '../analysis/recoverability';
-import { linearToSrgb } from '../colour';
+import { linearToSrgbArray } from '../colour';
 import type { FftBackend } from '../fft/backend';
+import type { BlockParallelism } from '../fft/parallel';
 import { defaultFftBackend } from '../fft/default-backend';
 import { buildKernel } from '../kernels/build';
 import { kernelSpecSchema, type KernelSpec } from '../kernels/spec';
-import { createPlane, planeValues, type Plane, type RasterImage } from '../types';
+import { createPlane, isContiguous, planeValues, type Plane, type RasterImage } from '../types';
 import { ENGINE_VERSION } from '../version';
 import { chooseAutoSettings, type AutoSettings } from './auto';
 import { imageToLinear } from './linear-light';
@@ -42,6 +43,11 @@ export interface RestoreHooks {
 	fft?: FftBackend;
 	/** Buffers and kernel transfer functions shared by the channels of one image (restore() makes one per call). */
 	workspace?: Workspace;
+	/**
+	 * {@link restorePlane} may write a Wiener result into the input plane's own buffer (the caller
+	 * owns it and no longer needs it), saving one plane-sized allocation per channel. @default false
+	 */
+	overwriteInput?: boolean;
 }
 
 /** The replayable record of one restoration. */
@@ -87,7 +93,8 @@ export function restorePlane(
 	const fft = hooks.fft ?? defaultFftBackend();
 	if (settings.method === 'wiener') {
 		hooks.signal?.throwIfAborted();
-		const out = wienerDeconvolve(plane, psf, { nsr: settings.nsr, regulariser: settings.regulariser, boundary: settings.boundary, fft, workspace: hooks.workspace });
+		const output = hooks.overwriteInput && isContiguous(plane) ? plane : undefined;
+		const out = wienerDeconvolve(plane, psf, { nsr: settings.nsr, regulariser: settings.regulariser, boundary: settings.boundary, fft, workspace: hooks.workspace, output });
 		hooks.onProgress?.(1, 1);
 		return { plane: out };
 	}
@@ -108,15 +115,16 @@ export function restorePlane(
 	return { plane: result.plane, iterationsRun: result.iterationsRun };
 }
 
-function resolveSettings(options: RestoreOptions, noiseSigma: number, psf: Plane, plane: Plane): { settings: PlaneSettings; auto?: AutoSettings } {
+/** `luminance` is only computed when the settings depend on the image (auto method or NSR). */
+function resolveSettings(options: RestoreOptions, noiseSigma: number, psf: Plane, luminance: () => Plane): { settings: PlaneSettings; auto?: AutoSettings } {
 	const method = options.method;
 	if (method === 'auto') {
-		const auto = chooseAutoSettings(plane, psf, noiseSigma);
+		const auto = chooseAutoSettings(luminance(), psf, noiseSigma);
 		return { settings: auto.settings, auto };
 	}
 	if (method === 'wiener') {
 		const regulariser = options.regulariser ?? 'constant';
-		const nsr = options.nsr === undefined || options.nsr === 'auto' ? chooseAutoSettings(plane, psf, noiseSigma).wienerNsr(regulariser) : options.nsr;
+		const nsr = options.nsr === undefined || options.nsr === 'auto' ? chooseAutoSettings(luminance(), psf, noiseSigma).wienerNsr(regulariser) : options.nsr;
 		return { settings: { method, nsr, regulariser, boundary: options.boundary ?? 'taper' } };
 	}
 	if (method === 'rl' || method === 'rltv') {
@@ -158,12 +166,11 @@ export function restore(img: RasterImage, kernel: KernelSpec, options: RestoreOp
 	validateOptions(options);
 	const psf = buildKernel(parsed.data);
 	const linearLight = options.linearLight ?? true;
-	const working = linearLight ? imageToLinear(img) : img;
+	const fft = hooks.fft ?? defaultFftBackend();
+	const working = linearLight ? imageToLinear(img, fft.parallel) : img;
 	const sigmas = working.planes.map((p) => estimateNoiseSigma(p));
 	const noiseSigma = sigmas.reduce((a, b) => a + b, 0) / sigmas.length;
-	const fft = hooks.fft ?? defaultFftBackend();
-	const luminance = meanPlane(working.planes);
-	const { settings, auto } = resolveSettings(options, noiseSigma, psf, luminance);
+	const { settings, auto } = resolveSettings(options, noiseSigma, psf, () => meanPlane(working.planes));
 	const channels = working.planes.length;
 	const unitsPerChannel = settings.method === 'wiener' ? 1 : Math.max(1, settings.iterations);
 	const total = channels * unitsPerChannel;
@@ -174,11 +181,13 @@ export function restore(img: RasterImage, kernel: KernelSpec, options: RestoreOp
 		const result = restorePlane(plane, psf, settings, {
 			fft,
 			workspace,
+			// The working planes are restore()'s own copies unless the input is used as it is.
+			overwriteInput: working !== img,
 			signal: hooks.signal,
 			onProgress: (done) => hooks.onProgress?.(c * unitsPerChannel + done, total)
 		});
 		if (result.iterationsRun !== undefined) iterationsRun = Math.max(iterationsRun ?? 0, result.iterationsRun);
-		return finishPlane(result.plane, encode);
+		return finishPlane(result.plane, encode, fft.parallel);
 	});
 	const image: RasterImage = { ...working, planes: restored, transfer: encode ? 'srgb' : working.transfer };
 	const [kh, kw] = psf.shape;
@@ -206,15 +215,25 @@ export function restore(img: RasterImage, kernel: KernelSpec, options: RestoreOp
 /**
  * Values outside [0, 1] cannot be stored in the output file (clipping is recorded in the run record);
  * then re-encode to sRGB when asked. Done in place on the restorer's own new plane, so no further
- * full-size copies exist at the end of a large restoration (they set its peak memory).
+ * full-size copies exist at the end of a large restoration (they set its peak memory). A plane in a
+ * thread pool's shared memory is finished by all its threads, rows split between them.
  */
-function finishPlane(plane: Plane, encode: boolean): Plane {
+function finishPlane(plane: Plane, encode: boolean, parallel: BlockParallelism | undefined): Plane {
 	const values = planeValues(plane);
-	for (let i = 0; i < values.length; i++) {
-		const clipped = Math.min(1, Math.max(0, values[i]));
-		values[i] = encode ? linearToSrgb(clipped) : clipped;
-	}
-	return createPlane(plane.shape[0], plane.shape[1], values);
+	const [height, width] = plane.shape;
+	const shared = typeof SharedArrayBuffer !== 'undefined' && values.buffer instanceof SharedArrayBuffer;
+	if (parallel?.rows && shared && values.length >= PARALLEL_MIN_VALUES) parallel.rows({ kind: 'finish', values, rows: height, cols: width, encode });
+	else finishRange(values, encode, 0, values.length);
+	return createPlane(height, width, values);
+}
+
+/** Smallest plane whose finishing is split between threads (common practice, no source). */
+const PARALLEL_MIN_VALUES = 2 ** 19;
+
+/** {@link finishPlane} of values [first, end): clip to [0, 1], then sRGB-encode if asked. */
+export function finishRange(values: Float32Array, encode: boolean, first: number, end: number): void {
+	for (let i = first; i < end; i++) values[i] = Math.min(1, Math.max(0, values[i]));
+	if (encode) linearToSrgbArray(values.subarray(first, end), values.subarray(first, end));
 }
 
 /** Channel mean, used only to pick auto settings once for all channels. */

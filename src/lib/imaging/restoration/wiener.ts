@@ -1,7 +1,8 @@
 import type { FftBackend } from '../fft/backend';
 import { defaultFftBackend } from '../fft/default-backend';
-import { irfft2, rfft2Buffer, type HalfSpectrum } from '../fft/real-fft';
-import { createPlane, planeValues, type Plane } from '../types';
+import type { BlockParallelism } from '../fft/parallel';
+import { irfft2, rfft2Buffer, splittable, type HalfSpectrum } from '../fft/real-fft';
+import { createPlane, isContiguous, planeValues, type Plane } from '../types';
 import { edgeTaper } from './edge-taper';
 import { mirrorPad } from './padding';
 import type { Workspace } from './workspace';
@@ -26,6 +27,11 @@ export interface WienerOptions {
 	 * @default none (everything is allocated per call)
 	 */
 	workspace?: Workspace;
+	/**
+	 * Receives the result (the input's size); may be the input plane itself, which is read in full
+	 * before anything is written. @default a new plane
+	 */
+	output?: Plane;
 }
 
 /** Geometry of the padded Wiener domain, for run records. */
@@ -46,13 +52,19 @@ export function wienerPadding(height: number, width: number, kernelShape: [numbe
 	return { rows, cols, top: (rows - height) >> 1, left: (cols - width) >> 1 };
 }
 
+/** A zero-filled work array for in-place transforms: shared between threads when the backend can split its FFTs. */
+function allocateTransform(length: number, backend: FftBackend): Float64Array {
+	const pool = backend.parallel;
+	return pool?.allocate64 && (pool.fft2 || pool.rows) ? pool.allocate64(length) : new Float64Array(length);
+}
+
 /**
  * Half-spectrum OTF of the kernel on a rows×cols grid, kernel centre at the origin (wrapped).
  */
 export function kernelHalfSpectrum(psf: Plane, rows: number, cols: number, backend: FftBackend): HalfSpectrum {
 	const [kh, kw] = psf.shape;
 	if (rows < kh || cols < kw) throw new RangeError(`grid ${cols}×${rows} is smaller than the kernel ${kw}×${kh}`);
-	const placed = new Float64Array(rows * cols);
+	const placed = allocateTransform(rows * cols, backend);
 	const ca = (kh - 1) >> 1;
 	const cb = (kw - 1) >> 1;
 	for (let a = 0; a < kh; a++) {
@@ -99,7 +111,10 @@ export function wienerDeconvolve(plane: Plane, psf: Plane, opts: WienerOptions =
 	const src = planeValues(plane);
 	const ws = opts.workspace;
 	const size = pad.rows * pad.cols;
-	const domain = ws ? ws.float64('wiener.domain', size) : new Float64Array(size);
+	// The transforms run in `domain`: in a thread pool's shared memory when the backend has one, so
+	// that its 2-D FFTs can be split between threads.
+	const allocate = (n: number) => allocateTransform(n, backend);
+	const domain = ws ? ws.float64('wiener.domain', size, allocate) : allocate(size);
 	if (boundary === 'circular') domain.set(src);
 	else {
 		mirrorPad(src, h, w, pad.rows, pad.cols, pad.top, pad.left, domain);
@@ -107,33 +122,44 @@ export function wienerDeconvolve(plane: Plane, psf: Plane, opts: WienerOptions =
 	}
 	// `domain` serves as the transform's work array and later receives the inverse: no extra copies.
 	const halfSize = 2 * pad.rows * (Math.floor(pad.cols / 2) + 1);
-	const spectrum = rfft2Buffer(domain, pad.rows, pad.cols, backend, true, ws && pad.cols % 2 === 0 ? ws.float64('wiener.spectrum', halfSize) : undefined);
+	const spectrum = rfft2Buffer(domain, pad.rows, pad.cols, backend, true, ws && pad.cols % 2 === 0 ? ws.float64('wiener.spectrum', halfSize, allocate) : undefined);
 	const computeOtf = () => kernelHalfSpectrum(psf, pad.rows, pad.cols, backend);
 	const otf = ws ? ws.spectrum(`${pad.rows}×${pad.cols} ${backend.name}`, computeOtf) : computeOtf();
-	applyWienerGain(spectrum, otf, nsr, regulariser);
+	applyWienerGain(spectrum, otf, nsr, regulariser, backend.parallel);
 	const restored = irfft2(spectrum, backend, domain);
-	const out = createPlane(h, w);
+	const out = opts.output ?? createPlane(h, w);
+	if (out.shape[0] !== h || out.shape[1] !== w || !isContiguous(out)) throw new RangeError(`output must be a contiguous ${w}×${h} plane`);
 	for (let i = 0; i < h; i++) {
 		const o = (i + pad.top) * pad.cols + pad.left;
-		for (let j = 0; j < w; j++) out.data[i * w + j] = restored[o + j];
+		out.data.set(restored.subarray(o, o + w), i * w);
 	}
 	return out;
 }
 
-/** Multiply a half spectrum in place by H* / (|H|² + NSR·R). Where the denominator is 0 the output is 0. */
-export function applyWienerGain(spectrum: HalfSpectrum, otf: HalfSpectrum, nsr: number, regulariser: 'constant' | 'laplacian'): void {
-	const { rows, cols, halfCols, data } = spectrum;
-	const h = otf.data;
+/**
+ * Multiply a half spectrum in place by H* / (|H|² + NSR·R). Where the denominator is 0 the output is 0.
+ * @param parallel splits the rows between threads when the spectra are in its shared memory. @default none
+ */
+export function applyWienerGain(spectrum: HalfSpectrum, otf: HalfSpectrum, nsr: number, regulariser: 'constant' | 'laplacian', parallel?: BlockParallelism): void {
+	const { rows, cols, data } = spectrum;
+	const laplacian = regulariser === 'laplacian';
+	if (parallel?.rows && splittable(rows * cols, data, otf.data)) parallel.rows({ kind: 'gain', data, otf: otf.data, rows, cols, nsr, laplacian });
+	else wienerGainRows(data, otf.data, rows, cols, nsr, laplacian, 0, rows);
+}
+
+/** Rows [first, end) of {@link applyWienerGain} on interleaved half spectra of rows × (⌊cols/2⌋ + 1). */
+export function wienerGainRows(data: Float64Array, h: Float64Array, rows: number, cols: number, nsr: number, laplacian: boolean, first: number, end: number): void {
+	const halfCols = Math.floor(cols / 2) + 1;
 	const colTerm = new Float64Array(halfCols);
 	for (let l = 0; l < halfCols; l++) colTerm[l] = 2 * Math.cos((2 * Math.PI * l) / cols) - 2;
-	for (let k = 0; k < rows; k++) {
+	for (let k = first; k < end; k++) {
 		const rowTerm = 2 * Math.cos((2 * Math.PI * k) / rows) - 2;
 		for (let l = 0; l < halfCols; l++) {
 			const p = 2 * (k * halfCols + l);
 			const hr = h[p];
 			const hi = h[p + 1];
-			const lap = rowTerm + colTerm[l];
-			const reg = regulariser === 'constant' ? nsr : nsr * lap * lap;
+			const lap = laplacian ? rowTerm + colTerm[l] : 0;
+			const reg = laplacian ? nsr * lap * lap : nsr;
 			const denom = hr * hr + hi * hi + reg;
 			const yr = data[p];
 			const yi = data[p + 1];

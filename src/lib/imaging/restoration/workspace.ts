@@ -11,11 +11,14 @@ export class Workspace {
 	private readonly buffers = new Map<string, Float64Array>();
 	private readonly spectra = new Map<string, HalfSpectrum>();
 
-	/** A Float64Array of `length` under `key`, reused when the length matches. */
-	float64(key: string, length: number): Float64Array {
+	/**
+	 * A Float64Array of `length` under `key`, reused when the length matches.
+	 * @param allocate makes a new buffer (e.g. a thread pool's shared memory). @default new Float64Array
+	 */
+	float64(key: string, length: number, allocate: (length: number) => Float64Array = (n) => new Float64Array(n)): Float64Array {
 		const found = this.buffers.get(key);
 		if (found?.length === length) return found;
-		const fresh = new Float64Array(length);
+		const fresh = allocate(length);
 		this.buffers.set(key, fresh);
 		return fresh;
 	}
