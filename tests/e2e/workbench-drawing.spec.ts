@@ -70,6 +70,8 @@ test('draw a path, preview a region, queue the run and compare aligned panes', a
 	await expect(page.getByTestId('region-summary')).toContainText(/region \d+×\d+ at \d+, \d+/);
 	await expect(page.getByTestId('region-box')).toBeVisible();
 	await expect(page.getByTestId('region-result')).toHaveAttribute('data-state', 'ready', { timeout: 30_000 });
+	// The worker runs the preview on the WASM FFT (the fast path the speed target was measured on).
+	await expect(page.getByTestId('region-status')).toContainText(/in \d+ ms \(pffft-wasm/);
 	await expect(page.getByTestId('spectrum-lost-fraction')).toContainText(/\d+\.\d %/, { timeout: 30_000 });
 
 	await page.getByLabel('Method').selectOption('wiener');

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { buildKernel } from '../imaging/kernels/build';
 import { kernelAtScale, previewOptions, PREVIEW_ITERATIONS } from './region-preview';
-import { previewRegion } from './region-restore';
+import { loadPreviewFft, previewRegion } from './region-restore';
 
 function flatRgba(width: number, height: number, level: number): Uint8ClampedArray {
 	const rgba = new Uint8ClampedArray(width * height * 4);
@@ -16,6 +16,25 @@ describe('previewRegion', () => {
 		if (!answer.ok) return;
 		expect([answer.width, answer.height, answer.rgba.length]).toEqual([48, 32, 48 * 32 * 4]);
 		for (let i = 0; i < answer.rgba.length; i += 4) expect(Math.abs(answer.rgba[i] - 128)).toBeLessThanOrEqual(1);
+	});
+
+	it('uses PFFFT when its WASM loads, and shows the same picture as fft.js to within one 8-bit code', async () => {
+		// Reference: the same request through the engine's fft.js / ndarray-fft backend (Float64); PFFFT is
+		// float32, so the 8-bit output may differ by rounding, never by more than one code.
+		const width = 96;
+		const height = 80;
+		const rgba = new Uint8ClampedArray(width * height * 4);
+		for (let i = 0; i < width * height; i++) rgba.set([(i * 7) % 251, (i * 13) % 241, 128 + ((i % width) % 64), 255], 4 * i);
+		const request = { id: 3, width, height, rgba, psf: { kind: 'line' as const, length: 9, angleDeg: 30 }, options: { method: 'wiener' as const, nsr: 0.01 } };
+		const fft = await loadPreviewFft();
+		const ours = previewRegion(request, fft);
+		const reference = previewRegion(request);
+		if (!ours.ok || !reference.ok) throw new Error('preview failed');
+		expect(ours.fft).toMatch(/^pffft-wasm/);
+		expect(reference.fft).toMatch(/^fft\.js/);
+		let worst = 0;
+		for (let i = 0; i < ours.rgba.length; i++) worst = Math.max(worst, Math.abs(ours.rgba[i] - reference.rgba[i]));
+		expect(worst).toBeLessThanOrEqual(1);
 	});
 
 	it('refuses a region larger than the preview allows, with a reason', () => {

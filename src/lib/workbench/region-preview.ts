@@ -24,7 +24,7 @@ export interface RegionRequest {
 }
 
 export type RegionAnswer =
-	| { id: number; ok: true; width: number; height: number; rgba: Uint8ClampedArray; ms: number }
+	| { id: number; ok: true; width: number; height: number; rgba: Uint8ClampedArray; ms: number; /** FFT backend that computed it (run-record name). */ fft: string }
 	| { id: number; ok: false; error: string };
 
 /**

@@ -2,9 +2,12 @@
 /** The region preview off the main thread: one request in, one answer out (see region-restore.ts). */
 import './worker-global';
 import type { RegionRequest } from './region-preview';
-import { previewRegion } from './region-restore';
+import { loadPreviewFft, previewRegion } from './region-restore';
 
-self.onmessage = (event: MessageEvent<RegionRequest>) => {
-	const answer = previewRegion(event.data);
+// Loaded once, before the first request is answered; answers keep the order of the requests.
+const fft = loadPreviewFft();
+
+self.onmessage = async (event: MessageEvent<RegionRequest>) => {
+	const answer = previewRegion(event.data, await fft);
 	(self as unknown as DedicatedWorkerGlobalScope).postMessage(answer, answer.ok ? [answer.rgba.buffer] : []);
 };
