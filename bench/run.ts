@@ -4,6 +4,7 @@
  * per target of issue 3 and are written to bench/out/ (git-ignored).
  *   --quick      skip the 12 MP and 24 MP measurements (RL speed then runs at 1 MP, no scikit-image)
  *   --no-python  skip the scikit-image / scipy reference columns
+ *   --speed      the speed and memory section alone (written to bench/out/speed-report.txt, speed-results.json)
  * The blur-estimation accuracy tables (issue 7) follow; `npx tsx bench/estimation-run.ts` runs them alone.
  */
 import { mkdirSync, writeFileSync } from 'node:fs';
@@ -18,8 +19,9 @@ import { runQuality } from './quality';
 import { qualityReport, speedReport } from './report';
 import { memory24mp, previewMs, rlSpeed, wienerSeconds, type SpeedSection } from './speed';
 
-const { values } = parseArgs({ options: { quick: { type: 'boolean' }, 'no-python': { type: 'boolean' } } });
+const { values } = parseArgs({ options: { quick: { type: 'boolean' }, 'no-python': { type: 'boolean' }, speed: { type: 'boolean' } } });
 const quick = Boolean(values.quick);
+const speedOnly = Boolean(values.speed);
 const outDir = resolve(import.meta.dirname, 'out');
 mkdirSync(outDir, { recursive: true });
 process.chdir(resolve(import.meta.dirname, '..'));
@@ -34,13 +36,13 @@ const withPython = 'versions' in reference;
 if (!withPython) log(`Python reference unavailable: ${reference.missing}`);
 
 const started = performance.now();
-const quality = await runQuality(outDir, withPython, log);
-if (!withPython) quality.skimageNote = reference.missing;
+const quality = speedOnly ? undefined : await runQuality(outDir, withPython, log);
+if (quality && !withPython) quality.skimageNote = reference.missing;
 
 const speed: SpeedSection = {};
 const loadNow = () => loadavg().map((l) => l.toFixed(2)).join(' ');
 const loadBefore = loadNow();
-speed.previewMs = previewMs();
+speed.previewMs = await previewMs();
 if (quick) {
 	speed.rl = rlSpeed(outDir, 1000, 1000, withPython, false, log);
 	speed.note = '--quick given';
@@ -54,13 +56,13 @@ if (quick) {
 
 speed.context = `${availableParallelism()} cores, engine on ${fast.backend.parallel?.threads ?? 1} threads; load average ${loadBefore} before the speed section, ${loadNow()} after`;
 
-log('estimation: motion, defocus, noise and 12 MP timing …');
-const estimation = await runEstimationBench({ perBand: quick ? 4 : 12 });
+if (!speedOnly) log('estimation: motion, defocus, noise and 12 MP timing …');
+const estimation = speedOnly ? '' : await runEstimationBench({ perBand: quick ? 4 : 12 });
 
-const q = qualityReport(quality);
+const q = quality ? qualityReport(quality) : { text: 'Quality and estimation: skipped (--speed)', verdicts: [] };
 const s = speedReport(speed);
 const text = [
-	`Stillpoint benchmark — ${ENGINE_VERSION} — node ${process.version} — ${quick ? 'quick' : 'full'} run in ${((performance.now() - started) / 1000).toFixed(0)} s`,
+	`Stillpoint benchmark — ${ENGINE_VERSION} — node ${process.version} — ${quick ? 'quick' : 'full'}${speedOnly ? ' speed-only' : ''} run in ${((performance.now() - started) / 1000).toFixed(0)} s`,
 	'',
 	q.text,
 	'',
@@ -72,7 +74,8 @@ const text = [
 	estimation
 ].join('\n');
 process.stdout.write(text + '\n');
-writeFileSync(join(outDir, 'report.txt'), text + '\n');
-writeFileSync(join(outDir, 'results.json'), JSON.stringify({ engineVersion: ENGINE_VERSION, quick, reference, quality, speed }, null, 1));
-log(`wrote ${join(outDir, 'report.txt')} and results.json`);
+const prefix = speedOnly ? 'speed-' : '';
+writeFileSync(join(outDir, `${prefix}report.txt`), text + '\n');
+writeFileSync(join(outDir, `${prefix}results.json`), JSON.stringify({ engineVersion: ENGINE_VERSION, quick, reference, quality, speed }, null, 1));
+log(`wrote ${join(outDir, `${prefix}report.txt`)} and ${prefix}results.json`);
 await fast.close();

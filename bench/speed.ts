@@ -2,7 +2,8 @@ import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { spawnSync } from 'node:child_process';
 import ndarray from 'ndarray';
-import { buildKernel, DefaultFftBackend, richardsonLucy } from '../src/lib/imaging';
+import { buildKernel, richardsonLucy } from '../src/lib/imaging';
+import { loadPreviewFft } from '../src/lib/workbench/region-restore';
 import { kernelSpecOf, runEngine } from './engine';
 import { writeF32, writeF64 } from './files';
 import type { SynthImage } from './image';
@@ -88,12 +89,13 @@ export function wienerSeconds(width: number, height: number): number {
 
 /**
  * Live-preview latency: 512×512 8-bit RGB Wiener, one warm-up then the median of `runs`, with the
- * browser's backend (fft.js on one thread: the workbench's Web Worker loads neither PFFFT nor a pool).
+ * backend the workbench's Web Worker chooses (region-restore.ts loadPreviewFft: PFFFT's WASM on one
+ * thread, fft.js / ndarray-fft if it fails to load; no thread pool).
  */
-export function previewMs(runs = 7): { median: number; runs: number[]; backend: string } {
+export async function previewMs(runs = 7): Promise<{ median: number; runs: number[]; backend: string }> {
 	const img = quantise(lichenTexture(512, 512, 7), 255);
 	const k = shakeKernel(33, SHAKE_SEED);
-	const fft = new DefaultFftBackend();
+	const fft = await loadPreviewFft();
 	const once = () => runEngine(img, k, { method: 'wiener', nsr: 0.01 }, fft).restoreMs;
 	once();
 	const times = Array.from({ length: runs }, once);
