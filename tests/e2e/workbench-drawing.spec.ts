@@ -115,3 +115,26 @@ test('suggest kernel proposes the demo blur and fills the form only when accepte
 	expect(Math.abs(length - 15)).toBeLessThanOrEqual(1);
 	expect(Math.abs(angle - 20)).toBeLessThanOrEqual(2);
 });
+
+test('a box around the lamp streak makes an image kernel from the photo itself', async ({ page }) => {
+	await openDemoPhoto(page);
+	const view = page.getByTestId('zoom-view');
+	const box = (await view.boundingBox())!;
+	// The zoom view publishes its transform: screen = image · zoom + (x, y), relative to the view box.
+	const [zoom, x, y] = ((await view.getAttribute('data-view')) ?? '').split(' ').map(Number);
+	const screen = (ix: number, iy: number) => ({ x: box.x + ix * zoom + x, y: box.y + iy * zoom + y });
+	// The lamp (demo-photo.ts: a 5 px disc at 480, 96, smeared by the 15 px motion) sits above the pole.
+	const from = screen(445, 72);
+	const to = screen(515, 100);
+	await page.getByRole('toolbar', { name: 'Kernel tools' }).getByRole('button', { name: 'Streak box' }).click();
+	await page.mouse.move(from.x, from.y);
+	await page.mouse.down();
+	await page.mouse.move(to.x, to.y, { steps: 6 });
+	await page.mouse.up();
+	await expect(page.getByTestId('streak-status')).toContainText(/Kernel \d+×\d+ from the streak at/, { timeout: 20_000 });
+	await expect(page.getByLabel('Kernel', { exact: true })).toHaveValue('image');
+	await expect(page.getByTestId('kernel-size')).toContainText('×');
+	// The run form records the kernel it will send, as JSON of the engine's spec.
+	await page.getByText('Kernel JSON (as recorded with the run)').click();
+	await expect(page.getByLabel('Kernel JSON')).toHaveValue(/"kind":"image".*"origin":"streak"/);
+});
