@@ -8,7 +8,11 @@ export interface Recoverability {
 	threshold: number;
 	/** Share of the non-DC frequency grid with |H| below the threshold. */
 	lostFraction: number;
-	/** Directions (degrees CCW from +x on screen, in [0, 180)) of the worst-hit frequency bands. */
+	/**
+	 * Directions (degrees CCW from +x on screen, in [0, 180), centres of 10° bins) along which detail
+	 * is lost at the coarsest scale, worst first; empty when nothing is lost or every direction is
+	 * hit alike (an isotropic blur).
+	 */
 	worstDirectionsDeg: number[];
 	note: string;
 }
@@ -25,6 +29,8 @@ export interface RecoverabilityOptions {
 
 /** Width of the direction bins in degrees. */
 const BIN_DEG = 10;
+/** Relative spread of first-loss frequencies treated as equal (tuning constant, no source). */
+const ISOTROPY_TOLERANCE = 0.1;
 /** Largest analysis grid side: the lost share is a density, so a 512-point sampling suffices. */
 const MAX_GRID = 512;
 
@@ -33,9 +39,11 @@ const MAX_GRID = 512;
  * where the Wiener filter passes less than half of the signal (N. Wiener, Extrapolation,
  * Interpolation, and Smoothing of Stationary Time Series, MIT Press 1949; Gonzalez & Woods, Digital
  * Image Processing, 4th ed., §5.8). Reports the lost share of the spectrum and the directions, in
- * the line-kernel angle convention, whose frequencies are most often lost: a straight motion at θ
- * erases detail that varies along θ (zeros at ρ = k/L, PRACTICE.md / Gonzalez & Woods §5.6).
- * Direction shares are measured inside the disk ρ ≤ ½ cycles/pixel. The OTF is sampled on a power-of-two grid of at most 512 per side (at least twice the kernel).
+ * the line-kernel angle convention, where loss starts at the lowest frequency: a straight motion at θ
+ * has its first zero along φ at ρ = 1/(L·|cos(φ − θ)|) (Gonzalez & Woods §5.6), so it erases detail
+ * varying along θ from the coarsest scale. (The lost share per direction is no ranking: a long blur
+ * loses nearly all of a wide band of directions.) Directions are compared inside the disk ρ ≤ ½
+ * cycles/pixel. The OTF is sampled on a power-of-two grid of at most 512 per side (at least twice the kernel).
  * @throws RangeError for a bad shape or a negative or non-finite noise sigma.
  */
 export function recoverability(psf: Plane, shape: [number, number], noiseSigma: number, opts: RecoverabilityOptions = {}): Recoverability {
@@ -52,8 +60,8 @@ export function recoverability(psf: Plane, shape: [number, number], noiseSigma: 
 	const cols = grid(w, kw);
 	const mag = transferFunction(psf, [rows, cols]).magnitude();
 	const bins = Math.round(180 / BIN_DEG);
-	const lostPerBin = new Float64Array(bins);
-	const totalPerBin = new Float64Array(bins);
+	/** Per direction bin: the lowest frequency ρ at which anything is lost. */
+	const firstLost = new Float64Array(bins).fill(Infinity);
 	let lost = 0;
 	for (let k = 0; k < rows; k++) {
 		const v = (k <= rows / 2 ? k : k - rows) / rows;
@@ -67,28 +75,26 @@ export function recoverability(psf: Plane, shape: [number, number], noiseSigma: 
 			if (isLost) lost++;
 			// Directions are compared inside the inscribed disk ρ ≤ ½ so the square grid's longer
 			// diagonals do not bias them.
-			if (u * u + v * v <= 0.25) {
-				totalPerBin[bin]++;
-				if (isLost) lostPerBin[bin]++;
-			}
+			const rho2 = u * u + v * v;
+			if (isLost && rho2 <= 0.25 && rho2 < firstLost[bin] * firstLost[bin]) firstLost[bin] = Math.sqrt(rho2);
 		}
 	}
 	const lostFraction = lost / (rows * cols - 1);
-	const shares = Array.from(lostPerBin, (n, b) => ({ deg: (b + 0.5) * BIN_DEG, share: totalPerBin[b] > 0 ? n / totalPerBin[b] : 0 }));
-	const top = Math.max(...shares.map((s) => s.share));
-	const worstDirectionsDeg =
-		top > 0
-			? shares
-					.filter((s) => s.share >= top - 0.05)
-					.sort((a, b) => b.share - a.share || a.deg - b.deg)
-					.slice(0, 3)
-					.map((s) => s.deg)
-			: [];
+	const lowest = Math.min(...firstLost);
+	// Bins whose loss starts within ISOTROPY_TOLERANCE of the earliest are "worst"; if that is
+	// every bin, no direction stands out.
+	const worst = Array.from(firstLost, (rho, b) => ({ deg: (b + 0.5) * BIN_DEG, rho }))
+		.filter((d) => Number.isFinite(d.rho) && d.rho <= lowest * (1 + ISOTROPY_TOLERANCE))
+		.sort((a, b) => a.rho - b.rho || a.deg - b.deg);
+	const worstDirectionsDeg = worst.length < bins ? worst.slice(0, 3).map((d) => d.deg) : [];
 	const pct = (lostFraction * 100).toFixed(1);
 	const note =
 		lost === 0
 			? `No frequency falls below |H| = ${threshold.toPrecision(3)} at this noise level; restoration can in principle recover the full spectrum.`
 			: `${pct}% of spatial frequencies have |H| below ${threshold.toPrecision(3)} (noise-tied threshold); ` +
-				`they are not recovered, only regularised. Most affected detail varies along ${worstDirectionsDeg.map((d) => `${d}°`).join(', ')}.`;
+				`they are not recovered, only regularised. ` +
+				(worstDirectionsDeg.length
+					? `Most affected detail varies along ${worstDirectionsDeg.map((d) => `${d}°`).join(', ')}.`
+					: 'Every direction is affected alike.');
 	return { threshold, lostFraction, worstDirectionsDeg, note };
 }

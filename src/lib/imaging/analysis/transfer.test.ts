@@ -66,8 +66,21 @@ describe('recoverability', () => {
 	it('a 45° motion is worst at 45°, and a delta loses nothing', () => {
 		const diag = recoverability(buildKernel({ kind: 'line', length: 21, angleDeg: 45 }), [256, 256], 0.01);
 		expect(diag.worstDirectionsDeg[0]).toBe(45);
+		// A motion at 20° lies on the border of the 10° bins: its two neighbours come first. The first
+		// zero along φ is at ρ = 1/(L·|cos(φ − θ)|) (Gonzalez & Woods §5.6), lowest along θ itself.
+		const tilted = recoverability(buildKernel({ kind: 'line', length: 15, angleDeg: 20 }), [512, 512], 0.0109);
+		expect([...tilted.worstDirectionsDeg.slice(0, 2)].sort()).toEqual([15, 25]);
 		const delta = recoverability(buildKernel({ kind: 'gaussian', sigma: 0.1 }), [64, 64], 0.01);
 		expect(delta.lostFraction).toBe(0);
 		expect(() => recoverability(delta as never, [64, 64], -1)).toThrow();
+	});
+
+	it('an isotropic blur (disk, Gaussian) names no worst direction and says every direction is hit alike', () => {
+		for (const spec of [{ kind: 'disk', radius: 5 }, { kind: 'gaussian', sigma: 3 }] as const) {
+			const report = recoverability(buildKernel(spec), [256, 256], 0.01);
+			expect(report.lostFraction).toBeGreaterThan(0.5);
+			expect(report.worstDirectionsDeg).toEqual([]);
+			expect(report.note).toContain('Every direction is affected alike');
+		}
 	});
 });
