@@ -1,6 +1,6 @@
 /**
  * `npx tsx bench/estimation-run.ts [--quick] [--only defocus,sharp]`: the blur-estimation benchmark
- * on its own, optionally only some of its parts (motion, defocus, sharp, noise, timing).
+ * on its own, optionally only some of its parts (motion, defocus, sharp, gaussian, noise, timing).
  */
 import { parseArgs } from 'node:util';
 import { ESTIMATION_PARTS, runEstimationBench, type EstimationPart } from './estimation';

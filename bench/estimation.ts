@@ -141,6 +141,35 @@ async function sharpRows(): Promise<SharpResult[]> {
 	return rows;
 }
 
+interface GaussianResult {
+	scene: string;
+	sigma: number;
+	noise: number;
+	verdict: string;
+	/** The best proposal, or '—'. */
+	detail: string;
+}
+
+/**
+ * Every scene blurred by an isotropic Gaussian (no spectral zeros), σ 1.5 and 2.5 px, noise σ 0.2 %
+ * and 1 %: a line or ring proposed here is a confident wrong answer, the worst outcome for the tool.
+ */
+async function gaussianRows(): Promise<GaussianResult[]> {
+	const names = ['dead-leaves', ...SCENES.map((s) => s.name)];
+	const rows: GaussianResult[] = [];
+	for (const [k, name] of names.entries()) {
+		for (const sigma of [1.5, 2.5]) {
+			for (const [j, noise] of [0.002, 0.01].entries()) {
+				const { plane } = await degraded({ kind: 'gaussian', sigma }, noise, k + 4 * j, 4000 + 10 * k + j, name);
+				const estimate = estimateBlur(plane);
+				const best = estimate.proposals[0];
+				rows.push({ scene: name, sigma, noise, verdict: estimate.verdict, detail: best ? `${JSON.stringify(best.kernel)} at ${best.confidence}` : '—' });
+			}
+		}
+	}
+	return rows;
+}
+
 /** Noise σ 0.2–3 % on blurred textured images (the estimator's use) and on sharp ones (harder). */
 async function noiseRows(): Promise<{ sigma: number; blurred: number[]; sharp: number[] }[]> {
 	const rows = [];
@@ -175,7 +204,7 @@ async function timing12mp(): Promise<{ wall: number; cpu: number }> {
 }
 
 /** Parts of the estimation benchmark, in report order. */
-export const ESTIMATION_PARTS = ['motion', 'defocus', 'sharp', 'noise', 'timing'] as const;
+export const ESTIMATION_PARTS = ['motion', 'defocus', 'sharp', 'gaussian', 'noise', 'timing'] as const;
 export type EstimationPart = (typeof ESTIMATION_PARTS)[number];
 
 /** Run the estimation benchmark (all parts unless `parts` names some) and return its report as text. */
@@ -215,6 +244,16 @@ export async function runEstimationBench(options: { perBand?: number; parts?: re
 		lines.push('');
 		const wrong = sharpCases.filter((r) => r.verdict !== 'no-confident-blur').length;
 		verdicts.push(`${verdict(wrong === 0)} sharp scenes answer no confident blur (${sharpCases.length - wrong} of ${sharpCases.length})`);
+	}
+	if (parts.has('gaussian')) {
+		const gaussianCases = await gaussianRows();
+		lines.push('Gaussian blur (no zeros): the answer should be gaussian or no-confident-blur, never a line or ring');
+		lines.push('scene              σ px  noise   verdict            best proposal');
+		for (const r of gaussianCases) lines.push(`${r.scene.padEnd(18)} ${fmt(r.sigma, 1).padStart(4)}  ${(100 * r.noise).toFixed(1).padStart(4)} %  ${r.verdict.padEnd(18)} ${r.detail}`);
+		lines.push('');
+		const wrong = gaussianCases.filter((r) => r.verdict === 'motion' || r.verdict === 'defocus').length;
+		const found = gaussianCases.filter((r) => r.verdict === 'gaussian').length;
+		verdicts.push(`${verdict(wrong === 0)} Gaussian blur never answered with a line or ring (${gaussianCases.length - wrong} of ${gaussianCases.length}; ${found} proposed as Gaussian)`);
 	}
 	if (parts.has('noise')) {
 		const noise = await noiseRows();

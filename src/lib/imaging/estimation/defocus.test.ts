@@ -104,6 +104,22 @@ describe('estimateBlur on defocused photographs (issue 7 target: median |ΔR| �
 		expect(Math.abs(kernel.radius - radius)).toBeLessThanOrEqual(0.25);
 	});
 
+	it('recovers R = 25 px on a 1024² photograph from 512-point tiles, with its rings drawn on the 256-point image', () => {
+		// On 256-point tiles the first J1 zero sits 0.6098·256/25 = 6.2 bins out and the rings 5–6
+		// bins apart (Cannon 1976; Abramowitz & Stegun Table 9.5), too shallow after the Hann window's
+		// smoothing; 512-point tiles halve the bin width (Welch 1967).
+		const result = estimateBlur(blurredScene(buildKernel({ kind: 'disk', radius: 25 }), 1024, 0.002, 70));
+		expect(result.verdict).toBe('defocus');
+		const [proposal] = result.proposals;
+		if (proposal.kernel.kind !== 'disk') throw new Error(`expected a disk, got ${proposal.kernel.kind}`);
+		expect(Math.abs(proposal.kernel.radius - 25)).toBeLessThanOrEqual(0.5);
+		expect(proposal.overlay.caption).toMatch(/512-point tiles/);
+		// The first dark ring, r = 3.8317·N/(2πR) bins, drawn at its 256-point position.
+		const ring = proposal.overlay.marks.find((m) => m.kind === 'circle' && m.role === 'zero');
+		if (ring?.kind !== 'circle') throw new Error('no ring mark');
+		expect(ring.r).toBeCloseTo((3.8317 * 256) / (2 * Math.PI * proposal.kernel.radius), 1);
+	});
+
 	it('reports no confident blur, and no disk, for sharp dead-leaves scenes at noise σ 0.2–3 %', () => {
 		for (const [seed, noise] of [
 			[11, 0.002],

@@ -20,8 +20,9 @@ export interface BlurProposal {
 	 * Evidence in [0, 1]. Lines and rings: the correlation between the observed log-spectrum
 	 * profile and the proposed kernel's zero pattern after the scene's smooth fall-off is removed
 	 * (1 = the dark lines or rings sit exactly where the kernel predicts), times the share of the
-	 * predicted zeros that are real dips (for rings also the share of directions in which the
-	 * first ring is dark). Fall-off: at most 0.6, the share of the camera-only model's misfit the
+	 * predicted zeros that are real dips (for lines also the depth agreement: the dark lines must be
+	 * as deep as a line kernel's zeros make them, not a shallow ripple of the scene; for rings the
+	 * share of directions in which the first ring is dark). Fall-off: at most 0.6, the share of the camera-only model's misfit the
 	 * Gaussian explains, times its agreement past the band (a weaker kind of evidence).
 	 */
 	confidence: number;
@@ -69,6 +70,20 @@ const round = (v: number, digits: number) => Math.round(v * 10 ** digits) / 10 *
  * 1 % statistical error while keeping a 12-megapixel photo fast.
  */
 const NOISE_SAMPLE_SIDE = 2048;
+
+/**
+ * A defocus fit on N-point tiles whose radius exceeds N/12 (rings under 7.3 bins out, 6 bins apart)
+ * is repeated on 2N-point tiles, where the same rings lie twice as far apart and keep their depth
+ * through the window's smoothing (Welch 1967: the periodogram's resolution is one bin of the tile).
+ * Tuning constant, no source.
+ */
+const LARGE_RADIUS_SHARE = 1 / 12;
+/**
+ * The finer fit needs a region of at least 3·N on its short side (two half-overlapping 2N tiles per
+ * side, four in all), and averages at most 16 tiles to bound the time. Tuning constants, no source.
+ */
+const FINE_REGION_TILES = 3;
+const FINE_MAX_TILES = 16;
 
 /** Variance below which a region is treated as flat: far under one 16-bit code value squared. */
 const FLAT_VARIANCE = 1e-12;
@@ -180,17 +195,33 @@ export function estimateBlur(plane: Plane, options: EstimateBlurOptions = {}): B
 	}
 	// Rings may sink into the noise with a brighter lobe beyond them: the defocus band runs to the last ring above the floor.
 	const ringBand = analysisBand(spectrum.power, n, sigma, { edge: 'last' });
-	const defocus = estimateDefocus(logPower, n, ringBand, { noisePower: sigma * sigma });
+	let rings = { fit: estimateDefocus(logPower, n, ringBand, { noisePower: sigma * sigma }), n, band: ringBand };
+	// Large disks put their rings close together on N-point tiles; where the region allows, the fit is
+	// repeated on 2N-point tiles (Welch 1967: finer frequency bins) and the more confident reading kept.
+	if (rings.fit && rings.fit.radius > LARGE_RADIUS_SHARE * n && Math.min(region.width, region.height) >= FINE_REGION_TILES * n) {
+		const fine = averagedPowerSpectrum(regionView(plane, region), { tileSize: 2 * n, maxTiles: FINE_MAX_TILES, fft: options.fft });
+		let finePeak = 0;
+		for (const p of fine.power) finePeak = Math.max(finePeak, p);
+		const fineLog = fine.power.map((p) => Math.log(Math.max(p, finePeak * 1e-15)));
+		const fineBand = analysisBand(fine.power, fine.size, sigma, { edge: 'last' });
+		const fineFit = estimateDefocus(fineLog, fine.size, fineBand, { noisePower: sigma * sigma });
+		if (fineFit && fineFit.confidence > rings.fit.confidence) rings = { fit: fineFit, n: fine.size, band: fineBand };
+	}
+	const defocus = rings.fit;
 	if (defocus) {
+		// Marks are drawn on the N-point spectrum image: a ring of r bins on a 2N-point spectrum lies at r/2 there.
+		const scale = n / rings.n;
+		const marks = defocus.marks.map((m) => (m.kind === 'circle' ? { ...m, cx: m.cx * scale, cy: m.cy * scale, r: m.r * scale } : m));
+		const tiles = rings.n === n ? '' : ` on ${rings.n}-point tiles`;
 		candidates.push({
 			kernel: { kind: 'disk', radius: round(defocus.radius, 2) },
 			confidence: round(defocus.confidence, 3),
 			method: 'spectral-rings',
 			overlay: {
 				spectrum: image,
-				marks: defocus.marks,
+				marks,
 				profile: defocus.profile,
-				caption: `First dark ring at ${round((0.6098 * n) / defocus.radius, 1)} bins: R = 0.6098·${n}/k0 (${defocus.zerosInBand} ring(s) in band ${ringBand.rMin}–${ringBand.rMax}; first ring dark in ${Math.round(defocus.isotropy * 6)} of 6 directions).`
+				caption: `First dark ring at ${round((0.6098 * rings.n) / defocus.radius, 1)} bins${tiles}: R = 0.6098·${rings.n}/k0 (${defocus.zerosInBand} ring(s) in band ${rings.band.rMin}–${rings.band.rMax}; first ring dark in ${Math.round(defocus.isotropy * 6)} of 6 directions).`
 			}
 		});
 	}

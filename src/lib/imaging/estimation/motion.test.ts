@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { buildKernel } from '../kernels/build';
 import type { AnalysisBand } from './band';
 import { estimateStraightMotion } from './motion';
-import { blurredScene } from './testing';
+import { addNoise, blurredScene, centreCrop, convolveValid, signScene } from './testing';
 import { estimateBlur } from './estimate-blur';
 
 const N = 256;
@@ -16,7 +16,7 @@ const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[xs.length >> 1];
  * Processing, 4th ed., §5.6), sampled on the centred N×N grid of averagedPowerSpectrum. The zeros
  * are filled to 1 % of the peak, as window leakage and noise fill them in any measured spectrum.
  */
-function analyticLineSpectrum(length: number, angleDeg: number): Float64Array {
+function analyticLineSpectrum(length: number, angleDeg: number, depth = 1): Float64Array {
 	const t = (angleDeg * Math.PI) / 180;
 	const out = new Float64Array(N * N);
 	for (let y = 0; y < N; y++) {
@@ -25,7 +25,7 @@ function analyticLineSpectrum(length: number, angleDeg: number): Float64Array {
 			const v = (y - N / 2) / N;
 			const s = length * (u * Math.cos(t) - v * Math.sin(t));
 			const h = s === 0 ? 1 : Math.sin(Math.PI * s) / (Math.PI * s);
-			out[y * N + x] = Math.log((h * h + 1e-2) / (u * u + v * v + 1e-4));
+			out[y * N + x] = depth * Math.log(h * h + 1e-2) - Math.log(u * u + v * v + 1e-4);
 		}
 	}
 	return out;
@@ -46,6 +46,20 @@ describe('estimateStraightMotion on analytic spectra', () => {
 		if (first?.kind !== 'segment') throw new Error('no zero mark');
 		const mid = Math.hypot((first.x1 + first.x2) / 2 - N / 2, (first.y1 + first.y2) / 2 - N / 2);
 		expect(mid).toBeCloseTo(N / m.length, 6);
+	});
+
+	it('gives no confidence to dark lines a fifth as deep as a line kernel makes them (depth check)', () => {
+		// The zeros of |sin(πkL/N) / (L·sin(πk/N))| (Gonzalez & Woods §5.6) fix the depth of the dark
+		// lines in log power up to the fill δ ≤ 0.1 the model admits; a ripple with their spacing but a
+		// fifth of their depth (shallower than any admitted fill) fits the no-line model better than the
+		// line model at its own depth (Draper & Smith, Applied Regression Analysis, §6.1, extra sum of
+		// squares, from memory).
+		const full = estimateStraightMotion(analyticLineSpectrum(24, 135), N, BAND)!;
+		expect(full.depthScale).toBeGreaterThan(0.9);
+		expect(full.depthAgreement).toBeGreaterThan(0.95);
+		const shallow = estimateStraightMotion(analyticLineSpectrum(24, 135, 1 / 5), N, BAND)!;
+		expect(shallow.depthScale).toBeLessThan(0.5);
+		expect(shallow.confidence).toBe(0);
 	});
 
 	it('finds nothing on a band too narrow for two dark lines and rejects bad options', () => {
@@ -80,5 +94,30 @@ describe('estimateBlur on motion-blurred photographs (issue 7 targets: median �
 		expect(Math.max(...angleErrors)).toBeLessThan(3);
 		expect(median(lengthErrors)).toBeLessThanOrEqual(1);
 		expect(median(angleErrors)).toBeLessThanOrEqual(2);
+	});
+});
+
+describe('estimateBlur on a Gaussian-blurred street sign (no zeros, strongly anisotropic scene)', () => {
+	// A Gaussian's transfer function exp(−2π²σ²ρ²) has no zeros (Gonzalez & Woods, Digital Image
+	// Processing, 4th ed., 2018, §4.8), whereas a line's |sin(πkL/N) / (L·sin(πk/N))| vanishes on
+	// parallel lines N/L bins apart (ibid. §5.6); blur zeros are read as zeros of the averaged
+	// sub-image spectra (Cannon, IEEE Trans. ASSP 24(1):58–63, 1976). The sign's straight edges and
+	// letter pitch ripple its spectrum with the right kind of spacing but not the depth of a zero,
+	// which the line model's depth check must tell apart.
+	const blurred = (kernel: ReturnType<typeof buildKernel>, noise: number) => addNoise(centreCrop(convolveValid(signScene(512 + Math.max(...kernel.shape), 1), kernel), 512), noise, 11);
+
+	it('proposes no straight motion with confidence ≥ 0.5 for a Gaussian σ 2', () => {
+		const result = estimateBlur(blurred(buildKernel({ kind: 'gaussian', sigma: 2 }), 0.01));
+		expect(result.verdict).not.toBe('motion');
+		expect(result.proposals.filter((p) => p.kernel.kind === 'line' && p.confidence >= 0.5)).toEqual([]);
+	});
+
+	it('still reads a real line blur of the same scene (issue 7 targets: 1 px, 2°)', () => {
+		const result = estimateBlur(blurred(buildKernel({ kind: 'line', length: 20, angleDeg: 30 }), 0.005));
+		expect(result.verdict).toBe('motion');
+		const kernel = result.proposals[0].kernel;
+		if (kernel.kind !== 'line') throw new Error(`expected a line, got ${kernel.kind}`);
+		expect(Math.abs(kernel.length - 20)).toBeLessThanOrEqual(1);
+		expect(angleError(kernel.angleDeg, 30)).toBeLessThanOrEqual(2);
 	});
 });

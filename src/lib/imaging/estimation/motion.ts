@@ -11,9 +11,10 @@ export interface MotionEstimate {
 	/** Blur direction in degrees counter-clockwise from +x on screen, in [0, 180) (a line has no sign). */
 	angleDeg: number;
 	/**
-	 * Evidence in [0, 1]: max(0, correlation) · max(0, dipsAlong − dipsAcross). It is high only when
-	 * the dark lines sit where the kernel predicts, are real dips, and are absent across the blur
-	 * direction (an isotropic ring pattern shows the same dips both ways).
+	 * Evidence in [0, 1]: max(0, correlation) · max(0, dipsAlong − dipsAcross) · depthAgreement. It
+	 * is high only when the dark lines sit where the kernel predicts, are real dips, are absent
+	 * across the blur direction (an isotropic ring pattern shows the same dips both ways), and are
+	 * as deep as a line kernel's zeros make them.
 	 */
 	confidence: number;
 	/** Share of the first dark lines that are real dips along the blur direction (see dipShare). */
@@ -22,6 +23,17 @@ export interface MotionEstimate {
 	dipsAcross: number;
 	/** Correlation of the observed profile with the model's, trend removed, in [−1, 1]. */
 	correlation: number;
+	/**
+	 * Fitted scale a = ⟨p, m⟩ / |m|² of the trend-free model m = ln(sinc² + δ) on the observed
+	 * profile p, at the fill depth δ that agrees best: 1 when the dips are as deep as the kernel's
+	 * zeros predict, well under ½ when a shallow ripple of the scene merely has their spacing.
+	 */
+	depthScale: number;
+	/**
+	 * Share of the scaled fit's explained sum of squares that the model keeps at its own depth,
+	 * (2a − 1) / a², floored at 0 (see estimateStraightMotion, step 5): 1 at a = 1, 0 for a ≤ ½.
+	 */
+	depthAgreement: number;
 	/** Dark lines of the proposed kernel that fall inside the analysed band. */
 	zerosInBand: number;
 	/** Quefrency of the cepstrum's negative peak along the blur direction, pixels; null when it has none. */
@@ -45,6 +57,11 @@ export interface MotionOptions {
  * zeros to an unknown depth, so the model's dips are given a few depths and the best fit is kept.
  */
 const MODEL_FLOORS = [0.01, 0.03, 0.1];
+/**
+ * Fill depths tried by the depth check (step 5): those of the search, and two deeper ones, since an
+ * image with little noise fills a line's zeros with the window's leakage alone. Tuning constant, no source.
+ */
+const DEPTH_FLOORS = [0.001, 0.003, ...MODEL_FLOORS];
 const FINE_LENGTH_STEP = 0.02;
 const FINE_ANGLE_STEP = 0.05;
 /** The outer tenth of the analysed disc is left out of the profile: its chords are too short to average. */
@@ -114,10 +131,25 @@ function anisotropicPart(logPower: Float64Array, n: number, band: AnalysisBand) 
  * Directions: spectrum pixel (x, y) maps to frequency (x − N/2, y − N/2)/N with y down, the same axes
  * as the image, so d(φ) = (cos φ, sin φ) measured clockwise on screen and the kernel angle is −φ mod 180°.
  * 4. Dip test: the first dark lines must be real minima of the projected anisotropic part along d and
- *    not across it (dipShare); the confidence is the correlation times the difference of the two shares,
- *    and among the candidates within 80 % of the highest confidence the one with the largest
- *    atanh(r)·√(lines in band) is returned (R. A. Fisher, Biometrika 10(4):507–521, 1915, from memory,
- *    for the z-transform of a correlation; the weighting by line count is this module's choice).
+ *    not across it (dipShare).
+ * 5. Depth check against the no-line model. A line's |H| = |sin(πkL/N) / (L·sin(πk/N))| has true zeros
+ *    (Gonzalez & Woods §5.6), so its dark lines are as deep in log power as ln(sinc² + δ) says, with δ
+ *    the depth to which noise and window leakage fill them; the model has no free scale. The rival
+ *    reading, an isotropic blur such as a Gaussian, whose transfer function has no zeros (Gonzalez &
+ *    Woods §4.8), leaves nothing in the anisotropic part but the scene's own anisotropy, so its model
+ *    of the profile is zero. Subtracting the line model at its own depth removes the share
+ *    1 − |p − m|²/|p|² = (2a − 1)·|m|²/|p|² of the profile's sum of squares (a = ⟨p, m⟩/|m|², the
+ *    fitted scale), against r² = a²·|m|²/|p|² for the best scaled fit; their ratio, (2a − 1)/a², is
+ *    1 at a = 1 and ≤ 0 once a ≤ ½, where the line model fits worse than no line at all: the dips are
+ *    a shallow ripple of the scene (rows of letters, the bright axes of straight edges) with the right
+ *    spacing, not the zeros of a blur (Cannon 1976 identifies a blur by the zeros of its transfer function).
+ *    Comparing the residual sums of squares of the two nested models is the extra-sum-of-squares
+ *    principle (N. R. Draper & H. Smith, Applied Regression Analysis, 3rd ed., 1998, §6.1, from
+ *    memory). The best ratio over a few fill depths δ is the depth agreement.
+ * The confidence is the correlation times the difference of the two dip shares times the depth
+ * agreement, and among the candidates within 80 % of the highest confidence the one with the largest
+ * atanh(r)·√(lines in band) is returned (R. A. Fisher, Biometrika 10(4):507–521, 1915, from memory,
+ * for the z-transform of a correlation; the weighting by line count is this module's choice).
  * Only lengths that put at least two dark lines inside the band are searched: one broad dip is
  * imitated too easily by the scene's own anisotropy.
  * @see M. Cannon, "Blind deconvolution of spatially invariant image blurs with phase", IEEE Trans.
@@ -253,8 +285,9 @@ export function estimateStraightMotion(logPower: Float64Array, n: number, band: 
 		const zeros = Array.from({ length: zerosInBand + 2 }, (_, k) => (k + 1) * spacing);
 		const dipsAlong = dipShare(project(part.value, phi), tLo, zeros);
 		const dipsAcross = dipShare(project(part.value, phi + 90), tLo, zeros);
-		const confidence = Math.max(0, correlation) * Math.max(0, dipsAlong - dipsAcross);
-		return { phi, length, floor, spacing, zerosInBand, correlation, dipsAlong, dipsAcross, confidence, cepstralLength };
+		const depthFit = DEPTH_FLOORS.map((d) => depthCheck(profile(phi), trend.residual(lineModel(length, n, ts, d)))).reduce((a, b) => (b.agreement > a.agreement ? b : a));
+		const confidence = Math.max(0, correlation) * Math.max(0, dipsAlong - dipsAcross) * depthFit.agreement;
+		return { phi, length, floor, spacing, zerosInBand, correlation, dipsAlong, dipsAcross, depthFit, confidence, cepstralLength };
 	};
 	const judged = starts.map(judge);
 	// The dip test removes candidates whose dark lines are not real (confidence below CONFIDENCE_SLACK
@@ -266,7 +299,7 @@ export function estimateStraightMotion(logPower: Float64Array, n: number, band: 
 	const best = judged
 		.filter((j) => j.confidence >= CONFIDENCE_SLACK * topConfidence)
 		.reduce((a, b) => (specificity(b) > specificity(a) ? b : a));
-	const { phi, length, spacing, zerosInBand, correlation, dipsAlong, dipsAcross, confidence, cepstralLength } = best;
+	const { phi, length, spacing, zerosInBand, correlation, dipsAlong, dipsAcross, depthFit, confidence, cepstralLength } = best;
 	const model = trend.residual(lineModel(length, n, ts, best.floor));
 	return {
 		length,
@@ -275,11 +308,29 @@ export function estimateStraightMotion(logPower: Float64Array, n: number, band: 
 		dipsAlong,
 		dipsAcross,
 		correlation,
+		depthScale: depthFit.scale,
+		depthAgreement: depthFit.agreement,
 		zerosInBand,
 		cepstralLength,
 		profile: fitProfile('across-lines', tLo, profile(phi), model),
 		marks: [...lineMarks(n, phi, spacing, band.rMax), ...bandMarks(n, band.rMin, band.rMax)]
 	};
+}
+
+/**
+ * Step 5 of estimateStraightMotion for one fill depth: the fitted scale a = ⟨p, m⟩/|m|² of the
+ * trend-free model m on the trend-free profile p, and max(0, (2a − 1)/a²), the share of the scaled
+ * fit's explained sum of squares that the model keeps at its own depth (a = 1).
+ */
+function depthCheck(p: Float64Array, m: Float64Array): { scale: number; agreement: number } {
+	let pm = 0;
+	let mm = 0;
+	for (let i = 0; i < m.length; i++) {
+		pm += p[i] * m[i];
+		mm += m[i] * m[i];
+	}
+	const scale = mm > 0 ? pm / mm : 0;
+	return { scale, agreement: scale > 0.5 ? (2 * scale - 1) / (scale * scale) : 0 };
 }
 
 /**
