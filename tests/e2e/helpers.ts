@@ -1,4 +1,5 @@
 /** Shared steps for the end-to-end tests: the demo accounts and signing in as one of them. */
+import { mkdirSync } from 'node:fs';
 import { expect, type Page } from '@playwright/test';
 import type { Role } from '../../src/lib/roles';
 
@@ -57,4 +58,21 @@ export async function expectComparePanesAligned(page: Page): Promise<void> {
 	);
 	expect(left).toMatch(/translate\(.+\) scale\(.+\)/);
 	expect(right).toBe(left);
+}
+
+/**
+ * Screenshots at the two screen sizes the workbench is designed for, kept as CI artefacts in
+ * tests/artifacts/ (ignored by git): `<name>-<w>x<h>.png` (the first screen) and `…-full.png`.
+ */
+export async function screenshotAtDesignSizes(page: Page, name: string): Promise<void> {
+	mkdirSync('tests/artifacts', { recursive: true });
+	for (const [width, height] of [
+		[1366, 768],
+		[1920, 1080]
+	] as const) {
+		await page.setViewportSize({ width, height });
+		await page.evaluate(() => window.scrollTo(0, 0));
+		await page.screenshot({ path: `tests/artifacts/${name}-${width}x${height}.png` });
+		await page.screenshot({ path: `tests/artifacts/${name}-${width}x${height}-full.png`, fullPage: true });
+	}
 }

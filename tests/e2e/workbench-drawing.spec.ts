@@ -6,9 +6,8 @@
  * the before/after panes stay aligned through zoom and pan. Then "suggest kernel" proposes the
  * seed's blur and fills the form. Screenshots of the workbench go to tests/artifacts/.
  */
-import { mkdirSync } from 'node:fs';
 import { expect, test, type Page } from '@playwright/test';
-import { expectComparePanesAligned, signIn, tableLoaded, waitForHydration } from './helpers';
+import { expectComparePanesAligned, screenshotAtDesignSizes, signIn, tableLoaded, waitForHydration } from './helpers';
 
 const DEMO_PHOTO = 'fenwick-row-bay-14.png';
 
@@ -84,16 +83,7 @@ test('draw a path, preview a region, queue the run and compare aligned panes', a
 	// The before/after viewer: both panes carry one transform after zoom and pan.
 	await expectComparePanesAligned(page);
 
-	mkdirSync('tests/artifacts', { recursive: true });
-	for (const [width, height] of [
-		[1366, 768],
-		[1920, 1080]
-	] as const) {
-		await page.setViewportSize({ width, height });
-		await page.evaluate(() => window.scrollTo(0, 0));
-		await page.screenshot({ path: `tests/artifacts/workbench-${width}x${height}.png` });
-		await page.screenshot({ path: `tests/artifacts/workbench-${width}x${height}-full.png`, fullPage: true });
-	}
+	await screenshotAtDesignSizes(page, 'workbench');
 });
 
 test('suggest kernel proposes the demo blur and fills the form only when accepted', async ({ page }) => {

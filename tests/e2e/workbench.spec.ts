@@ -3,11 +3,10 @@
  * photograph with a per-file progress bar, opens it, watches the kernel panel follow the form,
  * queues a straight-motion Wiener run, follows its progress to the end and sees the result.
  */
-import { mkdirSync } from 'node:fs';
 import { expect, test, type Page } from '@playwright/test';
 import sharp from 'sharp';
 import { buildKernel } from '../../src/lib/imaging/kernels/build';
-import { expectComparePanesAligned, signIn, tableLoaded, waitForHydration } from './helpers';
+import { expectComparePanesAligned, screenshotAtDesignSizes, signIn, tableLoaded, waitForHydration } from './helpers';
 
 /** An invented harbour sign, blurred by the engine's own 9-pixel motion at 30°; unique text so a rerun is never a duplicate. */
 async function blurredSign(): Promise<Buffer> {
@@ -108,14 +107,7 @@ test('upload, queue a straight-motion run, follow it and see the result', async 
 	await page.getByRole('button', { name: 'Side by side' }).click();
 	await page.getByRole('toolbar', { name: 'Comparison' }).getByRole('button', { name: 'Fit' }).click();
 
-	mkdirSync('tests/artifacts', { recursive: true });
-	for (const [width, height] of [
-		[1366, 768],
-		[1920, 1080]
-	] as const) {
-		await page.setViewportSize({ width, height });
-		await page.screenshot({ path: `tests/artifacts/upload-and-run-${width}x${height}.png`, fullPage: true });
-	}
+	await screenshotAtDesignSizes(page, 'upload-and-run');
 });
 
 test('a bad settings value is refused with the field named, and nothing is queued', async ({ page }) => {
