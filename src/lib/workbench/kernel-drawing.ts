@@ -5,6 +5,7 @@
  * (x right, y down) and pure, so the overlay component stays a thin layer of pointer handling and
  * the result is the engine's own kernel spec, validated by the engine's own schema.
  */
+import type { Region } from '../imaging/estimation/region';
 import { KERNEL_LIMITS, kernelSpecSchema, type KernelSpec } from '../imaging/kernels/spec';
 
 export type Point = [number, number];
@@ -23,13 +24,6 @@ export interface PathDraft {
 export type PathSpec = Extract<KernelSpec, { kind: 'path' }>;
 export type LineSpec = Extract<KernelSpec, { kind: 'line' }>;
 
-/** A box in whole original pixels, as the streak and region tools report it. */
-export interface PixelRect {
-	x: number;
-	y: number;
-	width: number;
-	height: number;
-}
 
 /** Largest dwell weight the editor offers; past this the segment simply holds the whole exposure. */
 export const MAX_DWELL = 20;
@@ -225,7 +219,7 @@ export function lineSpecFromDrag(a: Point, b: Point): LineSpec | null {
  * smaller corner, ceiling of the larger), clamped to the image and to `maxSide` per side (the part
  * nearest the drag's start is kept). Null when nothing of the image is covered.
  */
-export function rectFromDrag(a: Point, b: Point, image: { width: number; height: number }, maxSide = Infinity): PixelRect | null {
+export function rectFromDrag(a: Point, b: Point, image: { width: number; height: number }, maxSide = Infinity): Region | null {
 	const span = (from: number, to: number, limit: number): [number, number] | null => {
 		let lo = Math.max(0, Math.floor(Math.min(from, to)));
 		let hi = Math.min(limit, Math.ceil(Math.max(from, to)));

@@ -4,6 +4,7 @@
  * and the tiles a view needs. Image coordinates are continuous: pixel (i, j) covers
  * [i, i+1) × [j, j+1), so its centre is (i + ½, j + ½) — common practice, no source.
  */
+import type { Region } from '../imaging/estimation/region';
 
 /** screen = image · zoom + (x, y): CSS pixels relative to the view box's top-left corner; image in original pixels. */
 export interface ViewTransform {
@@ -91,19 +92,11 @@ export function pixelAt(t: ViewTransform, p: Point, image: Size): Point | null {
 	return x >= 0 && y >= 0 && x < image.width && y < image.height ? { x, y } : null;
 }
 
-/** A rectangle of whole original pixels. */
-export interface PixelBox {
-	x: number;
-	y: number;
-	width: number;
-	height: number;
-}
-
 /**
  * The original pixels at least partly on screen: the view box mapped back to the image and
  * clipped to it, widened to whole pixels. Null when no pixel of the image is in view.
  */
-export function visibleRect(t: ViewTransform, image: Size, view: Size): PixelBox | null {
+export function visibleRect(t: ViewTransform, image: Size, view: Size): Region | null {
 	const a = screenToImage(t, { x: 0, y: 0 });
 	const b = screenToImage(t, { x: view.width, y: view.height });
 	const x0 = Math.max(0, Math.floor(a.x));

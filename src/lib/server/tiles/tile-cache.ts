@@ -14,6 +14,7 @@ import { mkdir, readFile, rename, rm } from 'node:fs/promises';
 import { join, resolve } from 'node:path';
 import { pipeline } from 'node:stream/promises';
 import sharp from 'sharp';
+import type { Region } from '../../imaging/estimation/region';
 import type { ObjectStorage } from '../storage';
 import { buildPyramid, PYRAMID_VERSION, tileFileName, type PyramidManifest } from './pyramid';
 
@@ -21,13 +22,6 @@ import { buildPyramid, PYRAMID_VERSION, tileFileName, type PyramidManifest } fro
 export interface TileSource {
 	sha256: string;
 	storageKey: string;
-}
-
-export interface Rect {
-	x: number;
-	y: number;
-	width: number;
-	height: number;
 }
 
 export interface TileCacheOptions {
@@ -122,7 +116,7 @@ export function tileCache({ dir, storage, maxPixels }: TileCacheOptions) {
 		 * A full-resolution rectangle as PNG, assembled from level-0 tiles, so its values are the
 		 * tiles' display values exactly. The caller checks the rectangle lies inside the image.
 		 */
-		async region(source: TileSource, rect: Rect): Promise<Buffer> {
+		async region(source: TileSource, rect: Region): Promise<Buffer> {
 			const manifest = await ensure(source);
 			const { tileSize, channels } = manifest;
 			const out = Buffer.alloc(rect.width * rect.height * channels);
