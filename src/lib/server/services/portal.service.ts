@@ -24,6 +24,30 @@ export interface PortalFile {
 
 export type PortalDownload = 'report' | 'master' | 'png';
 
+/**
+ * A released report's PDF as a download, recorded as a custody event for whoever takes it: a
+ * client through the portal, or the lab's staff from the review page.
+ */
+export async function deliverReport(
+	storage: ObjectStorage,
+	custody: ReturnType<typeof custodyService>,
+	user: SessionUser,
+	report: ReportRow,
+	runId: number
+): Promise<PortalFile> {
+	const bytes = await storage.readBuffer(report.storageKey);
+	await custody.record({
+		action: 'report_downloaded',
+		actor: { id: user.id, role: user.role },
+		caseId: report.caseId,
+		itemId: report.itemId,
+		runId,
+		detail: { reportId: report.reportId },
+		hashAfter: report.pdfSha256
+	});
+	return { bytes, filename: `${report.reportId}.pdf`, contentType: 'application/pdf', sha256: report.pdfSha256 };
+}
+
 export function portalService(knex: Knex, deps: { clock: Clock; storage: ObjectStorage }) {
 	const reports = reportRepository(knex);
 	const custody = custodyService(knex, deps.clock);
@@ -58,11 +82,7 @@ export function portalService(knex: Knex, deps: { clock: Clock; storage: ObjectS
 		async download(user: SessionUser, itemId: number, file: PortalDownload): Promise<PortalFile> {
 			const { item, report, run } = await released(user, itemId);
 			const about = { actor: actorOf(user), caseId: item.caseId, itemId, runId: run.id };
-			if (file === 'report') {
-				const bytes = await deps.storage.readBuffer(report.storageKey);
-				await custody.record({ action: 'report_downloaded', ...about, detail: { reportId: report.reportId }, hashAfter: report.pdfSha256 });
-				return { bytes, filename: `${report.reportId}.pdf`, contentType: 'application/pdf', sha256: report.pdfSha256 };
-			}
+			if (file === 'report') return deliverReport(deps.storage, custody, user, report, run.id);
 			const master = await deps.storage.readBuffer(run.resultKey!);
 			await custody.record({ action: 'result_downloaded', ...about, detail: { file, reportId: report.reportId }, hashBefore: run.resultSha256, hashAfter: file === 'master' ? run.resultSha256 : null });
 			if (file === 'master') return { bytes: master, filename: `${report.reportId}-result.tif`, contentType: 'image/tiff', sha256: run.resultSha256! };

@@ -26,7 +26,7 @@ import { reviewNotices } from '../review-notices';
 import type { ObjectStorage } from '../storage';
 import { custodyService } from './custody.service';
 import { visibleItem } from './item-access';
-import type { PortalFile } from './portal.service';
+import { deliverReport, type PortalFile } from './portal.service';
 import { canReview } from './review.service';
 
 export interface ReleaseDeps {
@@ -111,17 +111,7 @@ export function releaseService(knex: Knex, deps: ReleaseDeps) {
 			await visibleItem(knex, user, proposal.itemId);
 			const report = await reports.findByProposal(proposal.id);
 			if (!report) throw new NotFoundError('Report');
-			const bytes = await deps.storage.readBuffer(report.storageKey);
-			await custody.record({
-				action: 'report_downloaded',
-				actor: { id: user.id, role: user.role },
-				caseId: report.caseId,
-				itemId: report.itemId,
-				runId: proposal.runId,
-				detail: { reportId: report.reportId },
-				hashAfter: report.pdfSha256
-			});
-			return { bytes, filename: `${report.reportId}.pdf`, contentType: 'application/pdf', sha256: report.pdfSha256 };
+			return deliverReport(deps.storage, custody, user, report, proposal.runId);
 		},
 
 		async release(user: SessionUser, proposalId: number): Promise<ReportRow> {
