@@ -1,6 +1,6 @@
 import type { AnalysisBand } from './band';
 import { dipShare } from './dips';
-import { NuisanceProjector, residualCorrelation } from './nuisance';
+import { leastSquaresScale, NuisanceProjector, residualCorrelation } from './nuisance';
 import { bandMarks, fitProfile, type FitProfile, type OverlayMark } from './overlay';
 import { radialMean } from './radial-profile';
 
@@ -323,13 +323,7 @@ export function estimateStraightMotion(logPower: Float64Array, n: number, band: 
  * fit's explained sum of squares that the model keeps at its own depth (a = 1).
  */
 function depthCheck(p: Float64Array, m: Float64Array): { scale: number; agreement: number } {
-	let pm = 0;
-	let mm = 0;
-	for (let i = 0; i < m.length; i++) {
-		pm += p[i] * m[i];
-		mm += m[i] * m[i];
-	}
-	const scale = mm > 0 ? pm / mm : 0;
+	const scale = leastSquaresScale(p, m);
 	return { scale, agreement: scale > 0.5 ? (2 * scale - 1) / (scale * scale) : 0 };
 }
 

@@ -35,6 +35,12 @@ function dot(a: Float64Array, b: Float64Array): number {
 	return s;
 }
 
+/** Least-squares scale a of a model m fitted to y, a = ⟨y, m⟩ / |m|²; 0 when m is identically zero. */
+export function leastSquaresScale(y: Float64Array, m: Float64Array): number {
+	const mm = dot(m, m);
+	return mm > 0 ? dot(m, y) / mm : 0;
+}
+
 /**
  * Pearson correlation of two residuals (both already free of a constant term), r = ⟨a, b⟩ / (|a|·|b|);
  * 0 when either is identically zero.

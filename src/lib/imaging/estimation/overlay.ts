@@ -3,6 +3,8 @@
  * image's pixel coordinates (x right, y down, one pixel per frequency bin, zero frequency at
  * `centre`), and the 1-D profile the model was fitted to.
  */
+import { leastSquaresScale } from './nuisance';
+
 export interface SpectrumImage {
 	width: number;
 	height: number;
@@ -80,12 +82,6 @@ export function bandMarks(n: number, rMin: number, rMax: number): OverlayMark[] 
 
 /** Observed profile and least-squares-scaled model as Float32 curves for display. */
 export function fitProfile(axis: FitProfile['axis'], start: number, observed: Float64Array, model: Float64Array): FitProfile {
-	let om = 0;
-	let mm = 0;
-	for (let i = 0; i < model.length; i++) {
-		om += observed[i] * model[i];
-		mm += model[i] * model[i];
-	}
-	const scale = mm > 0 ? om / mm : 0;
+	const scale = leastSquaresScale(observed, model);
 	return { axis, start, observed: Float32Array.from(observed), model: Float32Array.from(model, (v) => v * scale) };
 }
